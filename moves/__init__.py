@@ -1,0 +1,1 @@
+"""The move graph of plat presentations: pairing-subgroup moves, rewrites, stabilization."""

@@ -1,0 +1,1 @@
+"""Objectives, knot invariants used as guards, and bounds on the bridge number."""

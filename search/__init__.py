@@ -1,0 +1,1 @@
+"""Search strategies over the move graph, run folders, and batches."""
