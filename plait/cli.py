@@ -5,6 +5,7 @@ from __future__ import annotations
 import argparse
 import importlib
 import json
+import os
 import pkgutil
 import sys
 from collections.abc import Sequence
@@ -115,6 +116,12 @@ def main(argv: Sequence[str] | None = None) -> int:
         return 130
     except BrokenPipeError:
         return 0
+    except Exception as exc:  # a bug, not bad input: one line unless debugging
+        if os.environ.get("PLAIT_DEBUG"):
+            raise
+        sys.stderr.write(f"plait: internal error: {type(exc).__name__}: {exc} "
+                         f"(set PLAIT_DEBUG=1 for details)\n")
+        return 1
 
 
 def _entry() -> None:

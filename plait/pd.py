@@ -135,7 +135,10 @@ def _is_planar_embedding(emb: nx.PlanarEmbedding) -> tuple[bool, str]:
     try:
         emb.check_structure()
     except nx.NetworkXException as exc:
-        return False, str(exc).rstrip(".")
+        msg = str(exc)
+        if "Euler" in msg:
+            return False, "faces, edges and crossings violate Euler's formula V - E + F = 2"
+        return False, msg.rstrip(".")
     return True, ""
 
 
