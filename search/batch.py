@@ -71,6 +71,7 @@ LOCK_FILE = ".lock"
 # else in a row is a function of (input line, seed, step budget).
 VOLATILE_FIELDS = ("elapsed", "run_dir", "certificate")
 
+
 CSV_EVERY = 60.0  # seconds between rewrites of results.csv while a batch runs
 
 
@@ -143,12 +144,14 @@ def _resumable(run_dir: Path) -> bool:
 
 
 def search_item(task: ItemTask) -> dict:
-    """Reduce one item with :mod:`plait.search` (or the bridge report with ``bridge``),
-    continuing its run folder when an earlier attempt left one.
+    """Reduce one item with :func:`plait.search.api.reduce` (or the bridge report with
+    ``bridge``), continuing its run folder when an earlier attempt left one.
 
     Returns the JSON object of ``plait reduce --json`` (or ``plait bridge --json``).
+    Signals are left to the batch (``handle_signals=False``): a worker never returns a
+    half-finished search as a result.
     """
-    from plait import search
+    from plait.search.api import reduce, resume
 
     pres = presentation_from_obj(task.presentation)
     run_dir = Path(task.run_dir)
@@ -159,12 +162,12 @@ def search_item(task: ItemTask) -> dict:
         return res.to_json() if hasattr(res, "to_json") else dict(res)
     if _resumable(run_dir):
         try:
-            return search.resume(run_dir, quiet=True).to_json()
+            return resume(run_dir, quiet=True, handle_signals=False).to_json()
         except InputError:
-            # killed before its first checkpoint: nothing to continue, start afresh
+            # killed before the run's first checkpoint (no state.json yet): start afresh
             _clear_folder(run_dir)
-    res = search.reduce(pres, strategy=task.strategy, time=task.time, steps=task.steps,
-                        seed=task.seed, run_dir=run_dir, quiet=True)
+    res = reduce(pres, strategy=task.strategy, time=task.time, steps=task.steps,
+                 seed=task.seed, run_dir=run_dir, quiet=True, handle_signals=False)
     return res.to_json()
 
 

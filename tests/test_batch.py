@@ -73,6 +73,8 @@ def toy_item(task: ItemTask) -> dict:
             time.sleep(delay)
     if "boom" in task.id:
         raise ValueError("this item fails on purpose")
+    if "crash" in task.id:
+        os._exit(3)  # the worker process dies, as in an out-of-memory kill
     n = plat.bridges
     return {
         "result": {"strands": plat.strands, "word": word, "bridges": n, "length": len(word)},
@@ -246,6 +248,31 @@ def test_summary_histogram_and_medians():
     assert (s["ok"], s["errors"], s["improved"], s["complete"]) == (3, 1, 2, False)
     assert s["length_reduction_median"] == 20 and s["certified"] == 2
     assert s["time_per_item"]["median"] == 2.0
+
+
+def test_a_worker_that_dies_costs_only_its_own_item(tmp_path):
+    src = tmp_path / "in.jsonl"
+    ids = write_input(src, 6)
+    with open(src, "a") as fh:
+        fh.write(json.dumps({"id": "crash-1", "plat": [1, 2, -2]}) + "\n")
+    out = tmp_path / "out"
+    run_batch(src, out, steps=30, workers=2, quiet=True, item_fn=toy_item)
+    rows = {r["id"]: r for r in read_rows(out / "results.jsonl")}
+    assert sorted(rows) == sorted(ids + ["crash-1"])
+    assert "died" in rows["crash-1"]["error"]
+    assert not any(r["error"] for k, r in rows.items() if k != "crash-1")
+
+
+def test_one_writer_per_folder(tmp_path):
+    from plait.search.batch import _FolderLock
+
+    src = tmp_path / "in.jsonl"
+    write_input(src, 2)
+    out = tmp_path / "out"
+    out.mkdir()
+    with _FolderLock(out):
+        with pytest.raises(InputError, match="another plait batch"):
+            run_batch(src, out, steps=5, quiet=True, item_fn=toy_item)
 
 
 # -- exactly once under kill -9 --------------------------------------------------------------
