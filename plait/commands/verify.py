@@ -1,0 +1,42 @@
+"""``plait verify``: replay a certificate and check every move."""
+
+from __future__ import annotations
+
+import argparse
+
+from plait.cli import emit_json
+
+NAME = "verify"
+HELP = "check a certificate: replay its moves from the start plat to the claimed end plat"
+ORDER = 60
+
+
+def configure(p: argparse.ArgumentParser) -> None:
+    p.add_argument("certificate", metavar="CERT", help="certificate file (JSON)")
+    p.add_argument("--json", action="store_true", help="print one JSON object")
+
+
+def run(args: argparse.Namespace) -> int:
+    from plait.moves.certificate import load_certificate, verify_certificate
+
+    cert = load_certificate(args.certificate)
+    res = verify_certificate(cert)
+    if args.json:
+        emit_json({
+            "valid": res.ok,
+            "moves": len(cert.records),
+            "failed_step": res.failed_step,
+            "reason": res.reason,
+            "start": {"strands": cert.start.strands, "length": cert.start.length},
+            "end": {"strands": cert.end.strands, "length": cert.end.length},
+        })
+        return 0 if res.ok else 1
+    if res.ok:
+        print(f"valid: {len(cert.records)} moves take a {cert.start.bridges}-bridge plat with "
+              f"{cert.start.length} crossings to a {cert.end.bridges}-bridge plat with "
+              f"{cert.end.length} crossings")
+        return 0
+    where = "certificate" if res.failed_step is None else (
+        "end word" if res.failed_step == len(cert.records) else f"step {res.failed_step}")
+    print(f"invalid: {where}: {res.reason}")
+    return 1
