@@ -756,8 +756,13 @@ def run_batch(input_path: str | os.PathLike | None, out: str | os.PathLike, *,
     out = Path(out).resolve()
     if out.exists() and not out.is_dir():
         raise InputError(f"--out {out} is a file, not a folder")
-    out.mkdir(parents=True, exist_ok=True)
     inp = None if input_path is None else Path(input_path).resolve()
+    if resume and not (out / CONFIG_FILE).exists():
+        raise InputError(f"{out}: no batch to resume (no {CONFIG_FILE})")
+    if inp is not None and not inp.is_file():
+        raise InputError(f"file not found: {input_path}" if not inp.exists()
+                         else f"{input_path} is not a file")
+    out.mkdir(parents=True, exist_ok=True)
     with _FolderLock(out):
         cfg, items = _config(out, inp, seed=seed, steps=steps, time_budget=time,
                              strategy=strategy, bridge=bridge, shard=shard, resume=resume)
