@@ -1,0 +1,67 @@
+"""``plait reduce``: search for the simplest plat of a link, with guards and a certificate."""
+
+from __future__ import annotations
+
+import argparse
+import sys
+
+from plait.cli import add_input_arguments, emit_json, load_input
+
+NAME = "reduce"
+HELP = "search for a plat with fewest bridges, then fewest crossings"
+ORDER = 30
+
+#: Exit code of a run stopped by SIGINT or SIGTERM (after its final checkpoint).
+EXIT_INTERRUPTED = 130
+
+
+def configure(p: argparse.ArgumentParser) -> None:
+    add_input_arguments(p)
+    from plait.search.portfolio import STRATEGY_NAMES
+
+    p.add_argument("--strategy", choices=STRATEGY_NAMES, default="auto",
+                   help="search strategy (default: auto, a portfolio of the others)")
+    p.add_argument("--time", type=float, metavar="SECONDS",
+                   help="time budget in seconds (default 10 when --steps is not given)")
+    p.add_argument("--steps", type=int, metavar="N",
+                   help="step budget; with --seed the run is reproducible bit for bit")
+    p.add_argument("--seed", type=int, default=0, metavar="N", help="random seed (default 0)")
+    p.add_argument("--objective", default="bridges", metavar="NAME",
+                   help="bridges (default: fewest bridges, then length), length, "
+                        "or weighted[:W] (W letters per bridge)")
+    p.add_argument("--run-dir", metavar="DIR",
+                   help="run folder (default: a new folder under runs/)")
+    p.add_argument("--json", action="store_true", help="print one JSON object")
+    p.add_argument("--quiet", action="store_true", help="no progress bar")
+
+
+def report(res, as_json: bool) -> int:
+    """Print a result (shared with ``plait resume``); return the exit code."""
+    if as_json:
+        emit_json(res.to_json())
+    else:
+        r, i = res.result, res.input
+        lb = res.lower
+        status = "certified minimal" if lb == r.bridges else f"lower bound {lb}"
+        print(f"input:  {i.bridges} bridges, {i.length} crossings")
+        print(f"result: {r.bridges} bridges ({status}), {r.length} crossings")
+        print(f"word:   {r if r.word else '(empty)'}  (strands {r.strands})")
+        for reason in res.reasons:
+            print(f"bound:  {reason}")
+        print(f"guards: {res.guards}; certificate: {res.certificate}")
+        print(f"run:    {res.run_dir} ({res.steps} steps, {res.explored} states, "
+              f"{res.elapsed:.1f} s)")
+    if res.status == "interrupted":
+        sys.stderr.write(f"plait: interrupted; continue with: plait resume {res.run_dir}\n")
+        return EXIT_INTERRUPTED
+    return 0
+
+
+def run(args: argparse.Namespace) -> int:
+    from plait.search import reduce
+
+    pres = load_input(args)
+    res = reduce(pres, strategy=args.strategy, time=args.time, steps=args.steps,
+                 seed=args.seed, run_dir=args.run_dir, quiet=args.quiet or args.json,
+                 objective=args.objective)
+    return report(res, args.json)

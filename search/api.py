@@ -1,0 +1,560 @@
+"""``reduce`` and ``resume``: run a search with guards, checkpoints and a certificate."""
+
+from __future__ import annotations
+
+import signal
+import sys
+import threading
+import time as _time
+from dataclasses import dataclass, field
+from pathlib import Path
+
+import plait.moves as _moves
+from plait.scoring.objective import make_objective
+from plait.search.engine import (
+    SearchContext,
+    rng_state_from_json,
+    rng_state_to_json,
+    word_hash,
+)
+from plait.search.portfolio import STRATEGY_NAMES, Budget, make_strategy
+from plait.search.runfolder import DEFAULT_RUNS, STATE_FORMAT, RunFolder, new_run_dir
+
+from plait.convert import to_plat
+from plait.errors import GuardViolation, InputError
+from plait.formats import presentation_from_obj, presentation_to_obj
+from plait.word import ClosedBraid, PlatWord
+
+__all__ = ["reduce", "resume", "ReduceResult", "DEFAULT_TIME"]
+
+#: Seconds of search when neither a time nor a step budget is given.
+DEFAULT_TIME = 10.0
+
+# Seconds between checkpoints of state.json, and the least gap between two writes of a
+# new best (a burst of improvements is written once, at most this late).
+CHECKPOINT_EVERY = 3.0
+BEST_EVERY = 0.5
+
+
+@dataclass
+class ReduceResult:
+    """The outcome of :func:`reduce` or :func:`resume`.
+
+    Attributes
+    ----------
+    input, result : PlatWord
+        The start plat (the input converted) and the best plat found.
+    lower : int
+        Certified lower bound on the bridge number, with its ``reasons``.
+    guards : str
+        ``"passed"`` (a failure raises :class:`~plait.errors.GuardViolation` instead).
+    certificate : str
+        Path of the certificate from the input to ``result``.
+    run_dir : str
+        The run folder.
+    status : str
+        ``"done"`` (budget used up or optimum reached) or ``"interrupted"`` (a signal
+        stopped it; :func:`resume` continues).
+    """
+
+    input: PlatWord
+    result: PlatWord
+    lower: int
+    reasons: list = field(default_factory=list)
+    guards: str = "passed"
+    certificate: str = ""
+    run_dir: str = ""
+    status: str = "done"
+    strategy: str = "auto"
+    seed: int = 0
+    steps: int = 0
+    explored: int = 0
+    elapsed: float = 0.0
+
+    def to_json(self) -> dict:
+        """The JSON contract of ``plait reduce --json``."""
+        def four(p: PlatWord) -> dict:
+            return {"strands": p.strands, "word": list(p.word), "bridges": p.bridges,
+                    "length": p.length}
+
+        return {
+            "result": four(self.result),
+            "input": four(self.input),
+            "bridge_bounds": {
+                "lower": self.lower,
+                "upper": self.result.bridges,
+                "certified": self.lower == self.result.bridges,
+                "reasons": list(self.reasons),
+            },
+            "guards": self.guards,
+            "certificate": self.certificate,
+            "run_dir": self.run_dir,
+            "status": self.status,
+            "strategy": self.strategy,
+            "seed": self.seed,
+            "steps": self.steps,
+            "explored": self.explored,
+            "elapsed": round(self.elapsed, 3),
+        }
+
+
+# -- invariants (looked up at call time) ---------------------------------------------------
+
+def _fingerprint(plat: PlatWord, level: str):
+    from plait.scoring import fingerprint
+
+    return fingerprint(plat, level=level)
+
+
+def _fp_json(fp) -> object:
+    return fp.to_json() if hasattr(fp, "to_json") else fp
+
+
+def _lower_bound(plat: PlatWord) -> tuple[int, list[str]]:
+    from plait.scoring.bounds import bridge_lower_bound
+
+    lb = bridge_lower_bound(plat)
+    return int(lb.value), [str(r) for r in lb.reasons]
+
+
+def _guard(before, after, detail: str = "") -> None:
+    from plait.scoring import guard
+
+    guard(before, after, detail=detail)
+
+
+def _plat_obj(p: PlatWord) -> dict:
+    return {"strands": p.strands, "word": list(p.word), "bridges": p.bridges,
+            "length": p.length}
+
+
+# -- the run ---------------------------------------------------------------------------------
+
+class _Run:
+    """One search run bound to its folder: the loop, guards, checkpoints and signals."""
+
+    def __init__(self, folder: RunFolder, config: dict, start: PlatWord, input_obj: dict,
+                 quiet: bool, handle_signals: bool) -> None:
+        self.folder = folder
+        self.config = config
+        self.start = start
+        self.input_obj = input_obj
+        self.quiet = quiet
+        self.handle_signals = handle_signals
+        self.budget = Budget(config["time"], config["steps"])
+        self.objective = make_objective(config["objective"])
+        self.fp_cheap = _fingerprint(start, "cheap")
+        self.elapsed_before = 0.0
+        self.t0 = _time.monotonic()
+        self.interrupt: int | None = None
+        self.verified_node = 0      # path node of the last best that passed the guard
+        self.verified_plat = start
+        self.last_best_write = 0.0
+        self.last_checkpoint = 0.0
+        self.best_dirty = False
+        self.ctx: SearchContext | None = None
+        self.strategy = None
+
+    def elapsed(self) -> float:
+        return self.elapsed_before + (_time.monotonic() - self.t0)
+
+    # -- set up ------------------------------------------------------------------------
+    def fresh(self, lower: int, reasons: list[str]) -> None:
+        import random
+
+        cfg = self.config
+        kinds = tuple(cfg["kinds"]) if cfg.get("kinds") else None
+        self.lower, self.reasons = lower, reasons
+        ctx = SearchContext(self.start, self.objective, random.Random(cfg["seed"]), lower,
+                            kinds)
+        self.ctx = ctx
+        ctx.on_best = self._on_best
+        plat, node = ctx.canonical(self.start, 0)
+        plat, node = ctx.destabilize(plat, node)
+        ctx.offer(plat, node)
+        self.strategy = make_strategy(cfg["strategy"], ctx, cfg.get("params"), self.budget,
+                                      self.elapsed)
+        self.folder.log("start", strategy=cfg["strategy"], seed=cfg["seed"],
+                        time=cfg["time"], steps=cfg["steps"], input=_plat_obj(self.start),
+                        lower=lower)
+        self._write_best(force=True)
+        self._checkpoint("running")
+
+    def restore(self, state: dict) -> None:
+        from plait.search.engine import PathStore
+
+        cfg = self.config
+        kinds = tuple(cfg["kinds"]) if cfg.get("kinds") else None
+        self.lower, self.reasons = state["lower"], state["reasons"]
+        ctx = SearchContext(self.start, self.objective, rng_state_from_json(state["rng"]),
+                            self.lower, kinds)
+        ctx.paths = PathStore.from_json(self.start, state["paths"])
+        b = state["best"]
+        ctx.best = PlatWord(b["strands"], tuple(b["word"]))
+        ctx.best_node = b["node"]
+        ctx.best_key = self.objective.key(ctx.best)
+        ctx.best_step = state["best_step"]
+        ctx.steps = state["steps"]
+        ctx.explored = state["explored"]
+        ctx.improvements = state["improvements"]
+        self.ctx = ctx
+        self.elapsed_before = state["elapsed"]
+        self.t0 = _time.monotonic()
+        self.verified_node, self.verified_plat = ctx.best_node, ctx.best
+        ctx.on_best = self._on_best
+        self.strategy = make_strategy(cfg["strategy"], ctx, cfg.get("params"), self.budget,
+                                      self.elapsed, state["strategy"])
+        self.folder.log("resume", steps=ctx.steps, elapsed=round(self.elapsed_before, 3))
+
+    # -- best, guard, certificate ---------------------------------------------------------
+    def _on_best(self, plat: PlatWord, node: int) -> None:
+        self.best_dirty = True
+
+    def _write_best(self, force: bool = False) -> None:
+        """Guard the best (cheap fingerprint) and write best.json and the certificate."""
+        ctx = self.ctx
+        now = _time.monotonic()
+        if not (force or (self.best_dirty and now - self.last_best_write >= BEST_EVERY)):
+            return
+        if ctx.best_node != self.verified_node or force:
+            self._check(ctx.best, ctx.best_node, "cheap", self.fp_cheap)
+        self.verified_node, self.verified_plat = ctx.best_node, ctx.best
+        records = ctx.paths.records(ctx.best_node)
+        _moves.write_certificate(
+            self.folder.certificate_path, self.start, records, ctx.best,
+            input_presentation_obj=self.input_obj,
+            meta={"tool": "plait reduce", "strategy": self.config["strategy"],
+                  "seed": self.config["seed"], "step": ctx.best_step})
+        self.folder.write("best.json", {
+            **_plat_obj(ctx.best), "components": ctx.best.components,
+            "objective": self.config["objective"], "key": list(ctx.best_key),
+            "step": ctx.best_step, "moves": len(records),
+        })
+        self.folder.log("best", bridges=ctx.best.bridges, length=ctx.best.length,
+                        step=ctx.best_step, elapsed=round(self.elapsed(), 3))
+        self.best_dirty = False
+        self.last_best_write = now
+
+    def _check(self, plat: PlatWord, node: int, level: str, before) -> None:
+        """Compare the fingerprint of ``plat`` with the input's; on a difference locate
+        the offending move, log it, keep the last verified best and raise."""
+        after = _fingerprint(plat, level)
+        try:
+            _guard(before, after, detail=f"{level} fingerprint of the best plat")
+        except GuardViolation as exc:
+            where = _locate_offense(self.ctx, node, before, level)
+            self.folder.log("guard", invariant=exc.invariant, level=level, offending=where,
+                            rejected=_plat_obj(plat))
+            self._checkpoint("guard-failed", best_node=self.verified_node,
+                             best=self.verified_plat)
+            raise GuardViolation(exc.invariant, exc.before, exc.after,
+                                 detail=f"offending move: {where}") from None
+
+    def _checkpoint(self, status: str, best_node: int | None = None,
+                    best: PlatWord | None = None) -> None:
+        """Write state.json. The saved best is always one that passed the guard (a best
+        still waiting for its coalesced write is guarded and written first)."""
+        ctx = self.ctx
+        if best is None and self.best_dirty:
+            self._write_best(force=True)
+        if best is None:
+            best, best_node = ctx.best, ctx.best_node
+        live = list(self.strategy.live_nodes()) + [best_node, self.verified_node]
+        state = {
+            "format": STATE_FORMAT,
+            "status": status,
+            "steps": ctx.steps,
+            "explored": ctx.explored,
+            "improvements": ctx.improvements,
+            "elapsed": self.elapsed(),
+            "lower": self.lower,
+            "reasons": self.reasons,
+            "best": {"strands": best.strands, "word": list(best.word), "node": best_node},
+            "best_step": ctx.best_step,
+            "rng": rng_state_to_json(ctx.rng),
+            "strategy": self.strategy.state(),
+            "paths": ctx.paths.to_json(live),
+        }
+        self.folder.write("state.json", state)
+        self.last_checkpoint = _time.monotonic()
+
+    # -- loop ----------------------------------------------------------------------------
+    def _budget_left(self) -> bool:
+        b = self.budget
+        if b.steps is not None and self.ctx.steps >= b.steps:
+            return False
+        if b.time is not None and self.elapsed() >= b.time:
+            return False
+        return True
+
+    def _on_signal(self, signum, frame) -> None:
+        if self.interrupt is not None:
+            raise KeyboardInterrupt
+        self.interrupt = signum
+
+    def run(self) -> ReduceResult:
+        old = {}
+        if self.handle_signals and threading.current_thread() is threading.main_thread():
+            for sig in (signal.SIGINT, signal.SIGTERM):
+                old[sig] = signal.signal(sig, self._on_signal)
+        bar = self._bar()
+        try:
+            while (self._budget_left() and self.interrupt is None
+                   and not self.ctx.at_optimum()):
+                self.strategy.step()
+                self._write_best()
+                if _time.monotonic() - self.last_checkpoint >= CHECKPOINT_EVERY:
+                    self._checkpoint("running")
+                    self.folder.log("checkpoint", steps=self.ctx.steps,
+                                    elapsed=round(self.elapsed(), 3))
+                if bar is not None:
+                    self._bar_update(bar)
+            self._write_best(force=True)
+            if self.interrupt is not None:
+                self._checkpoint("interrupted")
+                self.folder.log("interrupted", signal=int(self.interrupt),
+                                steps=self.ctx.steps)
+                return self._result("interrupted")
+            return self._finish()
+        finally:
+            if bar is not None:
+                bar.close()
+            for sig, h in old.items():
+                signal.signal(sig, h)
+
+    def _finish(self) -> ReduceResult:
+        ctx = self.ctx
+        self._check(ctx.best, ctx.best_node, "full", _fingerprint(self.start, "full"))
+        ok = _moves.verify_certificate(self.folder.certificate_path)
+        if not _verified(ok):
+            raise GuardViolation("certificate", detail=f"the certificate of the best plat "
+                                 f"does not replay: {_reason(ok)}")
+        self._checkpoint("done")
+        self.folder.log("end", bridges=ctx.best.bridges, length=ctx.best.length,
+                        steps=ctx.steps, explored=ctx.explored,
+                        elapsed=round(self.elapsed(), 3), guards="passed")
+        return self._result("done")
+
+    def _result(self, status: str) -> ReduceResult:
+        ctx = self.ctx
+        return ReduceResult(
+            input=self.start, result=self.verified_plat, lower=self.lower,
+            reasons=list(self.reasons), guards="passed",
+            certificate=str(self.folder.certificate_path), run_dir=str(self.folder.path),
+            status=status, strategy=self.config["strategy"], seed=self.config["seed"],
+            steps=ctx.steps, explored=ctx.explored, elapsed=self.elapsed())
+
+    # -- progress ------------------------------------------------------------------------
+    def _bar(self):
+        if self.quiet:
+            return None
+        from tqdm import tqdm
+
+        b = self.budget
+        if b.steps is not None:
+            total, unit = b.steps, "step"
+        else:
+            total, unit = b.time, "s"
+        self._bar_unit = unit
+        self._bar_last = 0.0
+        return tqdm(total=total, unit=unit, file=sys.stderr, dynamic_ncols=True,
+                    desc=self.config["strategy"], leave=True,
+                    bar_format="{desc}: {percentage:3.0f}%|{bar}| {n_fmt}/{total_fmt} "
+                               "[{elapsed}]{postfix}")
+
+    def _bar_update(self, bar) -> None:
+        now = _time.monotonic()
+        if now - self._bar_last < 0.25:
+            return
+        self._bar_last = now
+        ctx = self.ctx
+        done = ctx.steps if self._bar_unit == "step" else round(self.elapsed(), 1)
+        bar.n = min(done, bar.total) if bar.total else done
+        el = max(1e-9, self.elapsed())
+        bar.set_postfix_str(f"best=({ctx.best.bridges},{ctx.best.length}) "
+                            f"states={ctx.explored} rate={ctx.explored / el:,.0f}/s",
+                            refresh=True)
+
+
+def _verified(ok) -> bool:
+    if isinstance(ok, bool):
+        return ok
+    return bool(getattr(ok, "ok", ok))
+
+
+def _reason(ok) -> str:
+    return str(getattr(ok, "reason", "") or getattr(ok, "message", "") or ok)
+
+
+def _locate_offense(ctx: SearchContext, node: int, before, level: str) -> str:
+    """The first move on the path to ``node`` that is wrong: one whose replay does not
+    apply or gives another word than the search used, else the first after which the
+    fingerprint differs from the input's (found by bisection)."""
+    recs = ctx.paths.records(node)
+    hashes = ctx.paths.hashes(node)
+    plat = ctx.start
+    plats = [plat]
+    for i, (rec, h) in enumerate(zip(recs, hashes, strict=True)):
+        try:
+            nxt = _moves.apply_move(plat, rec)
+        except Exception as exc:  # the replay rejects the move: it is the culprit
+            return f"step {i + 1} {rec.to_json()} from {list(plat.word)}: {exc}"
+        if h is not None and word_hash(nxt) != h:
+            return (f"step {i + 1} {rec.to_json()} from {list(plat.word)}: the search "
+                    f"used a word the move does not produce")
+        plat = nxt
+        plats.append(plat)
+
+    def same(p: PlatWord) -> bool:
+        try:
+            _guard(before, _fingerprint(p, level))
+            return True
+        except GuardViolation:
+            return False
+
+    lo, hi = 0, len(plats) - 1
+    if same(plats[hi]):
+        return "none found on the recorded path"
+    while hi - lo > 1:
+        mid = (lo + hi) // 2
+        if same(plats[mid]):
+            lo = mid
+        else:
+            hi = mid
+    return f"step {hi} {recs[hi - 1].to_json()} from {list(plats[lo].word)}"
+
+
+# -- public API --------------------------------------------------------------------------
+
+def _as_presentation(presentation):
+    if isinstance(presentation, dict):
+        return presentation_from_obj(presentation)
+    if isinstance(presentation, (list, tuple)):
+        return PlatWord.from_word(presentation)
+    return presentation
+
+
+def reduce(presentation, *, strategy: str = "auto", time: float | None = None,
+           steps: int | None = None, seed: int = 0, run_dir=None, quiet: bool = True,
+           objective: str = "bridges", kinds=None, params: dict | None = None,
+           handle_signals: bool = True, runs_root=DEFAULT_RUNS) -> ReduceResult:
+    """Search for the simplest plat of the link of ``presentation``.
+
+    Parameters
+    ----------
+    presentation : PlatWord, ClosedBraid, PDCode or dict
+        The input (a dict in the JSON form of :func:`plait.formats.presentation_from_obj`).
+    strategy : str
+        ``auto`` (portfolio), ``beam``, ``astar`` or ``anneal``.
+    time : float, optional
+        Seconds of search. Not reproducible; the default is 10 s when ``steps`` is None.
+    steps : int, optional
+        Step budget; with a step budget and a seed the result is the same bit for bit,
+        whether the run was interrupted and resumed or not.
+    seed : int
+        Seed of the run's only random generator.
+    run_dir : path-like, optional
+        The run folder (a new one under ``runs_root`` when None).
+    quiet : bool
+        No progress bar when True.
+    objective : str
+        ``bridges`` (fewest bridges, then fewest letters), ``length`` or ``weighted[:W]``.
+    kinds : iterable of str, optional
+        Move kinds the search may use (default: every non-growing kind).
+    params : dict, optional
+        Strategy parameters (fields of the strategy's ``*Params`` dataclass).
+    handle_signals : bool
+        Catch SIGINT/SIGTERM (main thread only): write a final checkpoint and return
+        with status ``"interrupted"``.
+
+    Returns
+    -------
+    ReduceResult
+
+    Raises
+    ------
+    InputError
+        Bad input or options.
+    GuardViolation
+        An invariant of the best plat differs from the input's; the run folder keeps the
+        last best that passed, and the message names the offending move.
+
+    References
+    ----------
+    .. [1] J. S. Birman, "On the stable equivalence of plat representations of knots
+       and links", Canad. J. Math. 28 (1976).
+    """
+    pres = _as_presentation(presentation)
+    start = to_plat(pres)
+    if strategy not in STRATEGY_NAMES:
+        raise InputError(f"strategy: unknown name {strategy!r} (choose from "
+                         f"{', '.join(STRATEGY_NAMES)})")
+    if time is not None:
+        if isinstance(time, bool) or not isinstance(time, (int, float)) or not time > 0:
+            raise InputError(f"time: expected a positive number of seconds, got {time!r}")
+        time = float(time)
+    if steps is not None and (isinstance(steps, bool) or not isinstance(steps, int)
+                              or steps < 0):
+        raise InputError(f"steps: expected a non-negative integer, got {steps!r}")
+    if time is None and steps is None:
+        time = DEFAULT_TIME
+    if isinstance(seed, bool) or not isinstance(seed, int):
+        raise InputError(f"seed: expected an integer, got {seed!r}")
+    obj = make_objective(objective)
+    if kinds is not None:
+        kinds = sorted(set(kinds))
+        bad = [k for k in kinds if k not in _moves.MOVE_KINDS]
+        if bad:
+            raise InputError(f"kinds: unknown move kind {bad[0]!r}")
+    folder = RunFolder(run_dir if run_dir is not None else new_run_dir(runs_root))
+    folder.create()
+    config = {
+        "format": "plait-search-config/1",
+        "strategy": strategy, "time": time, "steps": steps, "seed": seed,
+        "objective": obj.spec(), "kinds": kinds, "params": params,
+    }
+    input_obj = presentation_to_obj(pres)
+    lower, reasons = _lower_bound(start)
+    run = _Run(folder, config, start, input_obj, quiet, handle_signals)
+    folder.write("config.json", config)
+    folder.write("input.json", {
+        "presentation": input_obj, "plat": _plat_obj(start),
+        "fingerprint_cheap": _fp_json(run.fp_cheap),
+    })
+    run.fresh(lower, reasons)
+    return run.run()
+
+
+def resume(run_dir, quiet: bool = True, handle_signals: bool = True) -> ReduceResult:
+    """Continue the run saved in ``run_dir`` from its last checkpoint.
+
+    A finished run is returned as it is. With a step budget the result equals that of
+    an uninterrupted run with the same seed.
+
+    Raises
+    ------
+    InputError
+        When ``run_dir`` is not a run folder, or the run was stopped by a guard.
+    """
+    folder = RunFolder(run_dir)
+    if not Path(run_dir).is_dir():
+        raise InputError(f"run folder not found: {run_dir}")
+    config = folder.read("config.json")
+    inp = folder.read("input.json")
+    state = folder.read("state.json")
+    if state.get("format") != STATE_FORMAT:
+        raise InputError(f"{folder.state_path}: unknown state format {state.get('format')!r}")
+    if state["status"] == "guard-failed":
+        raise InputError(f"{run_dir}: the run was stopped by a guard failure; its best.json "
+                         f"holds the last verified plat (see log.jsonl)")
+    p = inp["plat"]
+    start = PlatWord(p["strands"], tuple(p["word"]))
+    pres = presentation_from_obj(inp["presentation"])
+    if isinstance(pres, (PlatWord, ClosedBraid)) and to_plat(pres) != start:
+        raise InputError(f"{folder.input_path}: the start plat does not match the input")
+    run = _Run(folder, config, start, inp["presentation"], quiet, handle_signals)
+    run.restore(state)
+    if state["status"] == "done":
+        run.verified_plat = run.ctx.best
+        return run._result("done")
+    return run.run()

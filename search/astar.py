@@ -1,0 +1,188 @@
+"""Weighted best-first (A*) search toward a target score on the move graph."""
+
+from __future__ import annotations
+
+import heapq
+from dataclasses import asdict, dataclass
+
+from plait.scoring.objective import isolation
+from plait.search.engine import BoundedSet, SearchContext, word_hash
+
+from plait.word import PlatWord
+
+__all__ = ["AStarParams", "AStarSearch", "heuristic"]
+
+
+@dataclass
+class AStarParams:
+    """Tuning of :class:`AStarSearch`.
+
+    Parameters
+    ----------
+    weight : float
+        ``w`` in ``f = g + w * h``; 1 is plain A*, larger is greedier.
+    max_drop : int
+        Assumed largest length drop of one move (the length part of ``h`` divides by it).
+    iso_weight : float
+        Weight of the (inadmissible) isolation hint while bridges exceed the lower bound.
+    max_open : int
+        The open list is cut back to this many best entries when it doubles.
+    closed_cap : int
+        How many canonical words the closed set remembers.
+    """
+
+    weight: float = 3.0
+    max_drop: int = 2
+    iso_weight: float = 0.5
+    max_open: int = 1500
+    closed_cap: int = 20000
+
+
+def heuristic(plat: PlatWord, lower_bound: int, target_length: int, max_drop: int,
+              iso_weight: float = 0.0) -> float:
+    """Estimated number of moves from ``plat`` to the target score.
+
+    ``h = max(bridges - lower_bound, (length - target_length) / max_drop)``, both parts
+    clipped at 0, plus ``iso_weight * (isolation - 1)`` while bridges exceed the bound.
+
+    Admissibility (never overestimating the true number of moves):
+
+    - ``bridges - lower_bound`` IS admissible for reaching a plat with ``lower_bound``
+      bridges: every move changes the strand count by at most two (one bridge), and the
+      lower bound is certified (no plat of the knot has fewer bridges).
+    - ``(length - target_length) / max_drop`` is admissible only if no move shortens the
+      word by more than ``max_drop`` letters. Single rewrites (a cancellation, a braid
+      relation, a destabilization) drop at most 2; macro moves (handle reduction, end
+      absorption of a long pairing-subgroup element, canonical form) can drop more, so
+      with them in the move set the length part is NOT admissible.
+    - The maximum of two admissible estimates is admissible; their sum would not be.
+    - The isolation hint is NOT admissible (a pair can become removable in one move
+      from any isolation); it is a guide, off when ``iso_weight`` is 0.
+    - With ``weight > 1`` the search is weighted A*: even with an admissible ``h`` the
+      path it finds is at most ``weight`` times longer than the shortest (Pohl 1970).
+
+    The target itself is a moving guess: the current best length minus one, so the
+    search always aims at an improvement whose size is unknown.
+
+    References
+    ----------
+    .. [1] P. E. Hart, N. J. Nilsson, B. Raphael, "A formal basis for the heuristic
+       determination of minimum cost paths", IEEE Trans. SSC 4 (1968).
+    .. [2] I. Pohl, "Heuristic search viewed as path finding in a graph", Artificial
+       Intelligence 1 (1970).
+    """
+    hb = max(0, plat.bridges - lower_bound)
+    hl = max(0.0, (plat.length - target_length) / max_drop)
+    h = max(float(hb), hl)
+    if iso_weight and hb > 0:
+        h += iso_weight * max(0, isolation(plat) - 1)
+    return h
+
+
+class AStarSearch:
+    """Weighted A* from the best plat toward (certified lower bound, best length - 1).
+
+    The cost ``g`` of a state is its number of moves from the state the search started
+    at; ``f = g + weight * h`` (see :func:`heuristic`). One step pops the open entry of
+    least ``(f, h, counter)``, puts it in canonical form, skips it when its canonical
+    word is closed, and pushes its neighbours. When a new best is found the target moves
+    and every open entry is rescored. When the open list empties the search restarts
+    from the best plat.
+
+    References
+    ----------
+    .. [1] P. E. Hart, N. J. Nilsson, B. Raphael, "A formal basis for the heuristic
+       determination of minimum cost paths", IEEE Trans. SSC 4 (1968).
+    """
+
+    name = "astar"
+
+    def __init__(self, ctx: SearchContext, params: AStarParams | None = None,
+                 state: dict | None = None) -> None:
+        self.ctx = ctx
+        self.p = params or AStarParams()
+        # open entries: [f, h, counter, g, node, strands, word]; counter makes the order
+        # total and deterministic.
+        if state is None:
+            self.counter = 0
+            self.open: list[list] = []
+            self.closed = BoundedSet(self.p.closed_cap)
+            self.target_length = ctx.best.length - 1
+            self.restarts = 0
+            self._push(ctx.best, ctx.best_node, 0)
+        else:
+            self.counter = state["counter"]
+            self.open = [list(e) for e in state["open"]]
+            heapq.heapify(self.open)
+            self.closed = BoundedSet(self.p.closed_cap, state["closed"])
+            self.target_length = state["target_length"]
+            self.restarts = state["restarts"]
+
+    def live_nodes(self) -> list[int]:
+        return [e[4] for e in self.open]
+
+    def state(self) -> dict:
+        return {
+            "params": asdict(self.p),
+            "counter": self.counter,
+            "open": [[e[0], e[1], e[2], e[3], e[4], e[5], list(e[6])]
+                     for e in sorted(self.open)],
+            "closed": self.closed.to_json(),
+            "target_length": self.target_length,
+            "restarts": self.restarts,
+        }
+
+    def _h(self, plat: PlatWord) -> float:
+        return heuristic(plat, self.ctx.lower_bound, self.target_length, self.p.max_drop,
+                         self.p.iso_weight)
+
+    def _push(self, plat: PlatWord, node: int, g: int) -> None:
+        h = self._h(plat)
+        self.counter += 1
+        heapq.heappush(self.open, [g + self.p.weight * h, h, self.counter, g, node,
+                                   plat.strands, plat.word])
+
+    def _retarget(self) -> None:
+        self.target_length = self.ctx.best.length - 1
+        for e in self.open:
+            h = self._h(PlatWord(e[5], e[6]))
+            e[0], e[1] = e[3] + self.p.weight * h, h
+        heapq.heapify(self.open)
+
+    def step(self) -> None:
+        ctx = self.ctx
+        ctx.steps += 1
+        while self.open:
+            _, _, _, g, node, strands, word = heapq.heappop(self.open)
+            plat, node = ctx.canonical(PlatWord(strands, tuple(word)), node)
+            plat, node = ctx.destabilize(plat, node)
+            h = word_hash(plat)
+            if h in self.closed:
+                continue
+            self.closed.add(h)
+            break
+        else:
+            self._restart()
+            return
+        improved = ctx.offer(plat, node)
+        for rec, nb in ctx.neighbors(plat):
+            if nb.bridges > plat.bridges:
+                continue  # stabilizations only widen the search; A* keeps to the others
+            child = ctx.paths.add(node, rec, nb)
+            if ctx.offer(nb, child):
+                improved = True
+            self._push(nb, child, g + 1)
+        if improved:
+            self._retarget()
+        if len(self.open) > 2 * self.p.max_open:
+            self.open = heapq.nsmallest(self.p.max_open, self.open)
+            heapq.heapify(self.open)
+
+    def _restart(self) -> None:
+        self.restarts += 1
+        self.open = []
+        self.target_length = self.ctx.best.length - 1
+        # forget the closed set: the search has seen everything reachable under its
+        # cut-offs, a second pass with a clean slate can take other branches
+        self.closed = BoundedSet(self.p.closed_cap)
+        self._push(self.ctx.best, self.ctx.best_node, 0)

@@ -1,0 +1,271 @@
+"""Machinery shared by the search strategies: move paths, the best plat so far, guards."""
+
+from __future__ import annotations
+
+import hashlib
+import random
+from collections import OrderedDict
+from collections.abc import Callable, Iterable, Iterator
+
+import plait.moves as _moves
+from plait.scoring.objective import Objective, isolation
+
+from plait.word import PlatWord
+
+__all__ = [
+    "word_hash",
+    "PathStore",
+    "SearchContext",
+    "BoundedSet",
+    "rng_state_to_json",
+    "rng_state_from_json",
+    "record_to_json",
+    "record_from_json",
+]
+
+
+def word_hash(plat: PlatWord) -> int:
+    """A 63-bit hash of (strands, word), the same in every process (Python's own
+    ``hash`` of a tuple is too, but spelling it out keeps run folders portable)."""
+    data = bytes([plat.strands]) + bytes((g + 128) & 0xFF for g in plat.word)
+    return int.from_bytes(hashlib.blake2b(data, digest_size=8).digest(), "big") >> 1
+
+
+def record_to_json(rec) -> object:
+    """JSON form of a move record."""
+    return rec.to_json()
+
+
+def record_from_json(obj) -> object:
+    """A move record from its JSON form."""
+    return _moves.MoveRecord.from_json(obj)
+
+
+def rng_state_to_json(rng: random.Random) -> list:
+    """``random.Random.getstate()`` as JSON (a version, 625 ints, the Gauss cache)."""
+    version, internal, gauss = rng.getstate()
+    return [version, list(internal), gauss]
+
+
+def rng_state_from_json(obj: list) -> random.Random:
+    """A generator in the state saved by :func:`rng_state_to_json`."""
+    rng = random.Random()
+    version, internal, gauss = obj
+    rng.setstate((version, tuple(internal), gauss))
+    return rng
+
+
+class BoundedSet:
+    """A set of ints that forgets its oldest members past ``cap`` (first in, first out),
+    so the visited sets of a search stay small enough to checkpoint.
+
+    The insertion order is part of the saved state, so a resumed search forgets exactly
+    what an uninterrupted one would.
+    """
+
+    def __init__(self, cap: int, items: Iterable[int] = ()) -> None:
+        self.cap = cap
+        self._d: OrderedDict[int, None] = OrderedDict()
+        for x in items:
+            self.add(x)
+
+    def __contains__(self, x: int) -> bool:
+        return x in self._d
+
+    def __len__(self) -> int:
+        return len(self._d)
+
+    def add(self, x: int) -> None:
+        if x in self._d:
+            return
+        self._d[x] = None
+        while len(self._d) > self.cap:
+            self._d.popitem(last=False)
+
+    def to_json(self) -> list[int]:
+        return list(self._d)
+
+
+class PathStore:
+    """Move paths from the start plat to every live search state, as a tree.
+
+    Data structure: ``nodes[id] = (parent_id, record, word_hash)``. Node 0 is the start
+    (no parent, no record). A state of a strategy holds one node id; the moves from the
+    start to it are read by walking parents. ``word_hash`` is the hash of the word the
+    search believes the record produced (``None`` inside a multi-move chain); replay
+    compares it with what the record really produces, which pins down a wrong move.
+    Ids are handed out in order, so a resumed search numbers nodes as the original did.
+    """
+
+    def __init__(self, start: PlatWord) -> None:
+        self.nodes: dict[int, tuple[int, object, int | None]] = {0: (-1, None, word_hash(start))}
+        self.next_id = 1
+
+    def add(self, parent: int, rec, plat: PlatWord | None) -> int:
+        """New node reached from ``parent`` by ``rec`` (``plat`` = its result)."""
+        i = self.next_id
+        self.next_id += 1
+        self.nodes[i] = (parent, rec, None if plat is None else word_hash(plat))
+        return i
+
+    def extend(self, parent: int, recs: list, plat: PlatWord) -> int:
+        """Chain of nodes for ``recs`` ending at ``plat``; returns the last node."""
+        node = parent
+        for j, rec in enumerate(recs):
+            node = self.add(node, rec, plat if j == len(recs) - 1 else None)
+        return node
+
+    def records(self, node: int) -> list:
+        """Move records from the start to ``node``."""
+        out = []
+        while node > 0:
+            parent, rec, _ = self.nodes[node]
+            out.append(rec)
+            node = parent
+        out.reverse()
+        return out
+
+    def hashes(self, node: int) -> list[int | None]:
+        """Recorded word hashes along the path to ``node`` (same order as records)."""
+        out = []
+        while node > 0:
+            parent, _, h = self.nodes[node]
+            out.append(h)
+            node = parent
+        out.reverse()
+        return out
+
+    def depth(self, node: int) -> int:
+        d = 0
+        while node > 0:
+            node = self.nodes[node][0]
+            d += 1
+        return d
+
+    def prune(self, live: Iterable[int]) -> None:
+        """Forget every node not on the path to a live node."""
+        keep = set()
+        for node in live:
+            while node >= 0 and node not in keep:
+                keep.add(node)
+                node = self.nodes[node][0]
+        self.nodes = {k: v for k, v in self.nodes.items() if k in keep}
+
+    def to_json(self, live: Iterable[int]) -> dict:
+        """Saved form: only the nodes on paths to ``live`` nodes."""
+        self.prune(live)
+        return {
+            "next_id": self.next_id,
+            "nodes": [[k, p, None if r is None else record_to_json(r), h]
+                      for k, (p, r, h) in sorted(self.nodes.items())],
+        }
+
+    @classmethod
+    def from_json(cls, start: PlatWord, obj: dict) -> PathStore:
+        store = cls(start)
+        store.next_id = int(obj["next_id"])
+        store.nodes = {int(k): (int(p), None if r is None else record_from_json(r), h)
+                       for k, p, r, h in obj["nodes"]}
+        return store
+
+
+class SearchContext:
+    """Everything the strategies share: the objective, the move graph access, the random
+    generator, the path tree, counters and the best plat found.
+
+    Parameters
+    ----------
+    start : PlatWord
+        The plat every path starts from.
+    objective : Objective
+        What to minimise.
+    rng : random.Random
+        The run's only source of randomness (its state is checkpointed).
+    lower_bound : int
+        Certified lower bound on the bridge number.
+    kinds : tuple of str or None
+        Move kinds allowed (None: all).
+
+    Notes
+    -----
+    There is no global state: two contexts in one process never interact, which is
+    what lets a batch run many searches side by side.
+    """
+
+    def __init__(self, start: PlatWord, objective: Objective, rng: random.Random,
+                 lower_bound: int = 1, kinds: tuple[str, ...] | None = None) -> None:
+        self.start = start
+        self.objective = objective
+        self.rng = rng
+        self.lower_bound = max(1, int(lower_bound))
+        self.kinds = kinds
+        self.paths = PathStore(start)
+        self.best = start
+        self.best_node = 0
+        self.best_key = objective.key(start)
+        self.best_step = 0
+        self.steps = 0          # work units done (the --steps budget counts these)
+        self.explored = 0       # neighbours generated
+        self.improvements = 0   # number of new bests
+        self.on_best: Callable[[PlatWord, int], None] | None = None
+
+    # -- the move graph, always looked up at call time (tests monkeypatch it) ------------
+    def neighbors(self, plat: PlatWord, kinds=None) -> Iterator[tuple[object, PlatWord]]:
+        """Lazily the (record, neighbour) pairs of ``plat``; counts them as explored."""
+        k = kinds if kinds is not None else self.kinds
+        for rec, nb in _moves.neighbors(plat, kinds=k):
+            self.explored += 1
+            yield rec, nb
+
+    def canonical(self, plat: PlatWord, node: int) -> tuple[PlatWord, int]:
+        """Canonical form of ``plat`` with the moves that reach it added to the paths."""
+        can, recs = _moves.canonical_with_moves(plat)
+        if not recs:
+            return plat, node
+        return can, self.paths.extend(node, list(recs), can)
+
+    def destabilize(self, plat: PlatWord, node: int) -> tuple[PlatWord, int]:
+        """Remove every stabilization the move graph can see, recording the moves."""
+        fn = getattr(_moves, "destabilize_all", None)
+        if fn is None or plat.bridges <= self.lower_bound:
+            return plat, node
+        new, recs = fn(plat)
+        if not recs:
+            return plat, node
+        return new, self.paths.extend(node, list(recs), new)
+
+    def apply(self, plat: PlatWord, rec) -> PlatWord:
+        return _moves.apply_move(plat, rec)
+
+    # -- scoring --------------------------------------------------------------------------
+    def key(self, plat: PlatWord) -> tuple:
+        return self.objective.key(plat)
+
+    def guide_key(self, plat: PlatWord) -> tuple:
+        """Key of the bridge-seeking lane: fewest bridges, then the most isolated pair
+        (a stabilization becomes visible at isolation 1), then length."""
+        return (plat.bridges, isolation(plat), plat.length)
+
+    def at_optimum(self) -> bool:
+        """True when nothing can beat the best (one bridge and no letters: the unknot)."""
+        return self.best.bridges <= self.lower_bound and self.best.length == 0
+
+    def offer(self, plat: PlatWord, node: int) -> bool:
+        """Record ``plat`` (reached at path ``node``) as the best when its key is
+        smaller. Returns True on a new best."""
+        k = self.objective.key(plat)
+        if k < self.best_key:
+            self.best, self.best_node, self.best_key = plat, node, k
+            self.best_step = self.steps
+            self.improvements += 1
+            if self.on_best is not None:
+                self.on_best(plat, node)
+            return True
+        return False
+
+    def random_neighbor(self, plat: PlatWord, kinds=None) -> tuple[object, PlatWord] | None:
+        """A neighbour chosen uniformly with the run's generator (None if there is none)."""
+        nbs = list(self.neighbors(plat, kinds))
+        if not nbs:
+            return None
+        return nbs[self.rng.randrange(len(nbs))]
