@@ -234,8 +234,10 @@ def _histogram(times: list[float]) -> Node:
         while i < len(counts) - 1 and t >= edges[i + 1]:
             i += 1
         counts[i] += 1
-    cmax = max(counts + [1])
-    yt = [v for v in _ticks(0, cmax, integer=True) if v <= cmax]
+    yt = _ticks(0, max(counts + [1]), integer=True)
+    if yt[-1] < max(counts + [1]):
+        yt.append(yt[-1] + (yt[1] - yt[0] if len(yt) > 1 else 1))
+    cmax = yt[-1]  # the axis ends on a tick at or above the tallest bar
     if log:
         xlo, xhi = math.log10(edges[0]), math.log10(edges[-1])
         xt = [float(e) for e in range(math.ceil(xlo), math.floor(xhi) + 1)]

@@ -785,6 +785,24 @@ def _plat_from(obj: object) -> PlatWord | None:
     return None
 
 
+def _start_from_input(obj: object) -> PlatWord | None:
+    # input.json holds the start plat ({"plat": {"strands", "word"}}) and/or the
+    # presentation as given ({"presentation": {...}} or a bare presentation object).
+    plat = _plat_from(obj)
+    if plat is not None:
+        return plat
+    if isinstance(obj, dict):
+        from plait.convert import to_plat
+        from plait.formats import presentation_from_obj
+
+        pres = obj.get("presentation", obj)
+        try:
+            return to_plat(presentation_from_obj(pres))
+        except (InputError, ImportError):
+            return None
+    return None
+
+
 def read_run_folder(folder: str | os.PathLike) -> RunFolder:
     """Read a search run folder: ``best.json``, ``certificate.json`` and ``input.json``.
 
@@ -820,12 +838,6 @@ def read_run_folder(folder: str | os.PathLike) -> RunFolder:
             for key in ("start", "initial", "before"):
                 start = start or _plat_from(cert.get(key))
     if start is None and (folder / "input.json").is_file():
-        from plait.convert import to_plat
-        from plait.formats import read_presentation_file
-
-        try:
-            start = to_plat(read_presentation_file(folder / "input.json"))
-        except ImportError:
-            start = None  # a PD input needs plait.fromdiagram
+        start = _start_from_input(_read_json(folder / "input.json"))
     ranked = tuple(sorted(moves.items(), key=lambda kv: (-kv[1], kv[0])))
     return RunFolder(best, start, ranked, has_cert)

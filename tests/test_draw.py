@@ -341,30 +341,46 @@ def test_cli_draw_bad_input(argv, capsys, tmp_path, monkeypatch):
     assert not (tmp_path / "x.svg").exists()
 
 
-def make_run_folder(path):
-    # A run folder as the search writes it: input, best plat, certificate of moves.
+def make_run_folder(path, layout):
+    # A run folder as plait.search writes it (search/runfolder.py, moves/certificate.py):
+    # input.json with the presentation and the start plat, best.json with the best plat,
+    # certificate.json with start, end and moves as [kind, *args]. The "brief" layout is
+    # the one first announced: a bare presentation in input.json, moves as objects.
+    start = ClosedBraid.from_word((1, 1, 1), 2).to_plat()
     path.mkdir()
-    (path / "input.json").write_text(json.dumps({"braid": [1, 1, 1], "strands": 2}))
+    if layout == "search":
+        (path / "input.json").write_text(json.dumps({
+            "presentation": {"braid": [1, 1, 1], "strands": 2},
+            "plat": {"strands": start.strands, "word": list(start.word)}}))
+        moves = [["twist", 0, 1, -1], ["cancel", 3], ["cancel", 2], ["destab", 1, 2]]
+        cert = {"format": "plait-certificate/1",
+                "start": {"strands": start.strands, "word": list(start.word)},
+                "end": {"strands": 4, "word": [2, 2, 2]}, "moves": moves}
+    else:
+        (path / "input.json").write_text(json.dumps({"braid": [1, 1, 1], "strands": 2}))
+        moves = [{"kind": "twist"}, {"kind": "cancel"}, {"kind": "cancel"},
+                 {"kind": "destab"}]
+        cert = {"moves": moves}
     (path / "best.json").write_text(json.dumps({"strands": 4, "word": [2, 2, 2],
-                                                "bridges": 2, "length": 3}))
-    moves = [{"kind": "hilden"}, {"kind": "slide"}, {"kind": "slide"}, {"kind": "cancel"}]
-    (path / "certificate.json").write_text(json.dumps({"moves": moves}))
+                                                "components": 1}))
+    (path / "certificate.json").write_text(json.dumps(cert))
     return path
 
 
-def test_cli_draw_run_folder(tmp_path, capsys):
-    folder = make_run_folder(tmp_path / "run")
+@pytest.mark.parametrize("layout", ["search", "brief"])
+def test_cli_draw_run_folder(tmp_path, capsys, layout):
+    folder = make_run_folder(tmp_path / "run", layout)
     rf = read_run_folder(folder)
     assert rf.best == PlatWord(4, (2, 2, 2))
     assert rf.start == ClosedBraid.from_word((1, 1, 1), 2).to_plat()
-    assert dict(rf.moves) == {"hilden": 1, "slide": 2, "cancel": 1}
+    assert dict(rf.moves) == {"twist": 1, "cancel": 2, "destab": 1}
     out = tmp_path / "best.svg"
     code, text, _ = run(["draw", str(folder), "--out", str(out)], capsys)
     assert code == 0
     svg = out.read_text()
     (panel,) = panels(svg)
     check_panel(panel, rf.best)
-    assert "certificate: 4 moves (2 \u00d7 slide, 1 \u00d7 cancel, 1 \u00d7 hilden)" in svg
+    assert "certificate: 4 moves (2 \u00d7 cancel, 1 \u00d7 destab, 1 \u00d7 twist)" in svg
     out2 = tmp_path / "ba.svg"
     code, text, _ = run(["draw", str(folder), "--out", str(out2), "--before-after"], capsys)
     assert code == 0
