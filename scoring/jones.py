@@ -8,10 +8,10 @@ from fractions import Fraction
 from functools import cache, lru_cache
 
 import numpy as np
+from plait.scoring.orientation import writhe
 
 from plait.errors import InputError
 from plait.word import PlatWord
-from scoring.orientation import writhe
 
 __all__ = [
     "MAX_JONES_BRIDGES",
