@@ -496,26 +496,32 @@ def _summary(plat: PlatWord) -> str:
 
 
 def _frame(panels: list[tuple[Node, float, float]], style: Style, notes: Iterable[str],
-           between: str | None) -> Drawing:
+           between: str | None, heading: str | None = None) -> Drawing:
     # Lay panels side by side with an arrow between them and notes underneath.
     margin = 18.0
     arrow_w = 56.0 if between else 30.0
     notes = [s for s in notes if s]
     body_h = max(h for _, _, h in panels)
+    top = margin + (26.0 if heading else 0.0)
     width = margin * 2 + sum(w for _, w, _ in panels) + arrow_w * (len(panels) - 1)
+    if heading:
+        width = max(width, margin * 2 + _text_width(heading, 15))
     note_h = 16.0 * len(notes) + (6.0 if notes else 0.0)
-    height = margin * 2 + body_h + note_h
+    height = top + margin + body_h + note_h
     root = Node("svg", {"class": "plait-drawing"})
     root.add(Node("rect", {"class": "background", "x": 0, "y": 0, "width": _num(width),
                            "height": _num(height), "fill": "#ffffff"}))
+    if heading:
+        root.add(_text(margin, margin + 12, heading, style, size=15, cls="heading",
+                       anchor="start", color=style.ink, weight="bold"))
     x = margin
     for i, (node, w, _h) in enumerate(panels):
-        node.offset = (x, margin)
+        node.offset = (x, top)
         root.add(node)
         x += w
         if i + 1 < len(panels):
             if between:
-                ay = margin + min(body_h / 2, 160.0)
+                ay = top + min(body_h / 2, 160.0)
                 root.add(Node("path", {"class": "between", "stroke": style.faint,
                                        "stroke-width": 2.0, "fill": "none",
                                        "stroke-linecap": "round", "stroke-linejoin": "round"},
@@ -529,7 +535,7 @@ def _frame(panels: list[tuple[Node, float, float]], style: Style, notes: Iterabl
     if notes:
         notes_g = root.add(Node("g", {"class": "notes"}))
         for i, s in enumerate(notes):
-            notes_g.add(_text(margin, margin + body_h + 16 + 16 * i, s, style, size=11,
+            notes_g.add(_text(margin, top + body_h + 16 + 16 * i, s, style, size=11,
                               cls="note", anchor="start", color=style.ink))
     return Drawing(root, width, height)
 
@@ -581,11 +587,11 @@ def draw_plat(plat: PlatWord, *, positions: bool = False, letters: bool = False,
 def draw_compare(before: PlatWord, after: PlatWord, *, positions: bool = False,
                  letters: bool = False, arrows: bool = False, max_rows: int | None = None,
                  titles: tuple[str, str] | None = None, notes: Iterable[str] = (),
-                 style: Style | None = None) -> Drawing:
+                 heading: str | None = None, style: Style | None = None) -> Drawing:
     """Two plats side by side with an arrow between them: "before" and "after".
 
     Takes the same options as :func:`draw_plat`; the panels carry ``data-role`` =
-    ``before`` and ``after``.
+    ``before`` and ``after``, titled by ``titles``; ``heading`` goes above both.
     """
     style = _with_rows(style, max_rows)
     t0, t1 = titles or ("before", "after")
@@ -595,7 +601,7 @@ def draw_compare(before: PlatWord, after: PlatWord, *, positions: bool = False,
         _panel(after, style, role="after", title=t1, subtitle=_summary(after),
                positions=positions, letters=letters, arrows=arrows),
     ]
-    return _frame(panels, style, notes, "plait")
+    return _frame(panels, style, notes, "plait", heading)
 
 
 def _with_rows(style: Style | None, max_rows: int | None) -> Style:

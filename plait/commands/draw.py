@@ -55,7 +55,7 @@ def run(args: argparse.Namespace) -> int:
         if args.before_after:
             if rf.start is None:
                 raise InputError(f"{folder}: no readable start plat (input.json) to compare")
-            drawing = draw_compare(rf.start, rf.best, notes=notes, **opts)
+            drawing = draw_compare(rf.start, rf.best, notes=notes, heading=args.title, **opts)
             what = f"{_summary(rf.start)} -> {_summary(rf.best)}"
         else:
             drawing = draw_plat(rf.best, title=args.title, notes=notes, **opts)
