@@ -77,6 +77,7 @@ class Drawing:
     root: Node
     width: float
     height: float
+    label: str = ""  # written as the SVG <title>, read by screen readers and tooltips
 
     def to_svg(self) -> str:
         """The picture as a standalone SVG document."""
@@ -89,6 +90,8 @@ class Drawing:
         for k, v in self.root.attrs.items():
             out.append(f" {k}={quoteattr(_val(v))}")
         out.append(">\n")
+        if self.label:
+            out.append(f"  <title>{escape(self.label)}</title>\n")
         for child in self.root.children:
             _write_svg(child, out, 1)
         out.append("</svg>\n")
@@ -116,6 +119,8 @@ class Style:
         (smaller gives a steeper crossing).
     max_rows : int
         Longest column; longer words are wrapped into several columns of equal length.
+    max_columns : int
+        Columns side by side; more columns continue in a further band below.
     """
 
     spacing: float = 22.0
@@ -125,6 +130,7 @@ class Style:
     gap: float = 5.0
     bend: float = 0.3
     max_rows: int = 50
+    max_columns: int = 8
     font: str = "Helvetica, Arial, sans-serif"
     ink: str = "#222222"
     faint: str = "#777777"
@@ -304,7 +310,10 @@ def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtit
     col_pitch = left + colw + right + colgap
     lines = [t for t in (title, subtitle) if t]
     heads = [(t, 13.0 if i == 0 else 11.0) for i, t in enumerate(lines)]
-    width = max([len(cols) * col_pitch - colgap] + [_text_width(t, sz) for t, sz in heads])
+    per_band = max(1, style.max_columns)
+    bands = math.ceil(len(cols) / per_band)
+    width = max([min(len(cols), per_band) * col_pitch - colgap]
+                + [_text_width(t, sz) for t, sz in heads])
     # vertical layout, column-local y measured from the strands' top ends (y = 0) up:
     # caps (or continuation chevrons), position labels, continuation note, column title
     y_pos = -0.75 * cap_h - 5.0
@@ -318,7 +327,8 @@ def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtit
     max_rows = max(b - a for a, b in cols)
     body = 2 * lead + max_rows * rh
     foot = 0.75 * cap_h + (13.0 if positions else 0.0) + (14.0 if multi else 0.0) + 8.0
-    height = y0 + body + foot
+    band_h = room + body + foot + 12.0
+    height = y0 + body + foot + (bands - 1) * band_h
 
     panel = Node("g", {"class": "panel", "data-role": role, "data-strands": n2,
                        "data-length": len(word), "data-bridges": plat.bridges,
@@ -334,7 +344,8 @@ def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtit
         bottom = 2 * lead + rows * rh
         col = panel.add(Node("g", {"class": "column", "data-column": ci + 1,
                                    "data-first": a + 1, "data-last": b},
-                             offset=(ci * col_pitch + left, y0)))
+                             offset=((ci % per_band) * col_pitch + left,
+                                     y0 + (ci // per_band) * band_h)))
         if multi:
             col.add(_text(colw / 2, y_coltitle, f"letters {a + 1}\u2013{b}", style,
                           size=10, cls="column-title"))
@@ -581,7 +592,10 @@ def draw_plat(plat: PlatWord, *, positions: bool = False, letters: bool = False,
     panel = _panel(plat, style, role="plat", title=title or _summary(plat),
                    subtitle=_summary(plat) if title else None, positions=positions,
                    letters=letters, arrows=arrows)
-    return _frame([panel], style, notes, None)
+    drawing = _frame([panel], style, notes, None)
+    drawing.label = f"plat {plat.strands} strands: {plat}" if plat.length <= 200 else \
+        f"plat on {plat.strands} strands, {plat.length} letters"
+    return drawing
 
 
 def draw_compare(before: PlatWord, after: PlatWord, *, positions: bool = False,
@@ -601,7 +615,9 @@ def draw_compare(before: PlatWord, after: PlatWord, *, positions: bool = False,
         _panel(after, style, role="after", title=t1, subtitle=_summary(after),
                positions=positions, letters=letters, arrows=arrows),
     ]
-    return _frame(panels, style, notes, "plait", heading)
+    drawing = _frame(panels, style, notes, "plait", heading)
+    drawing.label = heading or f"before: {_summary(before)}; after: {_summary(after)}"
+    return drawing
 
 
 def _with_rows(style: Style | None, max_rows: int | None) -> Style:

@@ -261,6 +261,17 @@ def test_long_word_wraps_into_columns():
     check_trace(panel, plat)
 
 
+def test_many_columns_continue_in_bands():
+    # More columns than fit side by side continue in bands below; strands stay connected.
+    plat = ClosedBraid.from_word((1, -2, 1, -2, 1, -2)).to_plat()  # 18 letters
+    (panel,) = panels(plat_svg(plat, max_rows=1))
+    cols = [c for c in panel if c.get("class") == "column"]
+    assert len(cols) == 18
+    tops = sorted({offset(c)[1] for c in cols})
+    assert len(tops) == 3  # 8 + 8 + 2 columns
+    check_panel(panel, plat)
+
+
 @settings(max_examples=40, deadline=None)
 @given(st.integers(1, 4).flatmap(lambda n: st.tuples(
     st.just(2 * n),
