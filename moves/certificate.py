@@ -38,7 +38,7 @@ class Certificate:
     end: PlatWord
     input: dict | None = None
     meta: dict = field(default_factory=dict)
-    digest: str | None = None
+    digest: str = ""
 
 
 def _plat_obj(p: PlatWord) -> dict:
@@ -65,8 +65,9 @@ def write_certificate(
     (``{"strands": int, "word": [int, ...]}``), ``moves`` (a list of ``[kind, *args]``,
     see :mod:`plait.moves.records`), ``input`` (the presentation the start plat was made
     from, as in plait's presentation JSON, or null), ``meta`` (free-form, not certified)
-    and ``digest`` (SHA-256 of start, moves, end and input). The replay, not the
-    digest, is what proves the claim; the digest only flags edits early.
+    and ``digest`` (SHA-256 of start, moves, end and input, required). The replay, not the
+    digest, proves the claim: an edit with a recomputed digest is caught by the replay
+    unless the edited file is itself a valid proof; the digest flags every other edit.
     """
     s, e = _plat_obj(start), _plat_obj(end)
     moves = [r.to_json() for r in records]
@@ -140,8 +141,8 @@ def certificate_from_obj(obj: object) -> Certificate:
     if not isinstance(meta, dict):
         raise InputError("certificate: 'meta' must be an object")
     digest = obj.get("digest")
-    if digest is not None and not isinstance(digest, str):
-        raise InputError("certificate: 'digest' must be a string")
+    if not isinstance(digest, str):
+        raise InputError("certificate: 'digest' must be a string (sha256 of the content)")
     return Certificate(start, tuple(records), end, inp, meta, digest)
 
 
@@ -183,12 +184,11 @@ def verify_certificate(cert: str | os.PathLike | Certificate) -> ReplayResult:
     """
     if not isinstance(cert, Certificate):
         cert = load_certificate(cert)
-    if cert.digest is not None:
-        want = certificate_digest(_plat_obj(cert.start), [r.to_json() for r in cert.records],
-                                  _plat_obj(cert.end), cert.input)
-        if want != cert.digest:
-            return ReplayResult(False, None, None, "digest does not match the certified "
-                                "content (start, moves, end or input was edited)")
+    want = certificate_digest(_plat_obj(cert.start), [r.to_json() for r in cert.records],
+                              _plat_obj(cert.end), cert.input)
+    if want != cert.digest:
+        return ReplayResult(False, None, None, "digest does not match the certified "
+                            "content (start, moves, end or input was edited)")
     if cert.input is not None:
         why = _check_input(cert)
         if why:
