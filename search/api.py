@@ -30,9 +30,10 @@ __all__ = ["reduce", "resume", "ReduceResult", "DEFAULT_TIME"]
 #: Seconds of search when neither a time nor a step budget is given.
 DEFAULT_TIME = 10.0
 
-# Seconds between checkpoints of state.json, and the least gap between two writes of a
-# new best (a burst of improvements is written once, at most this late).
+#: Default seconds between checkpoints of state.json (``checkpoint_every``).
 CHECKPOINT_EVERY = 3.0
+# Least gap in seconds between two writes of a new best (a burst of improvements is
+# guarded and written once, at most this late; a checkpoint always writes it first).
 BEST_EVERY = 0.5
 
 
@@ -142,6 +143,7 @@ class _Run:
         self.quiet = quiet
         self.handle_signals = handle_signals
         self.budget = Budget(config["time"], config["steps"])
+        self.checkpoint_every = float(config.get("checkpoint_every") or CHECKPOINT_EVERY)
         self.objective = make_objective(config["objective"])
         self.fp_cheap = _fingerprint(start, "cheap")
         self.elapsed_before = 0.0
@@ -303,7 +305,7 @@ class _Run:
                    and not self.ctx.at_optimum()):
                 self.strategy.step()
                 self._write_best()
-                if _time.monotonic() - self.last_checkpoint >= CHECKPOINT_EVERY:
+                if _time.monotonic() - self.last_checkpoint >= self.checkpoint_every:
                     self._checkpoint("running")
                     self.folder.log("checkpoint", steps=self.ctx.steps,
                                     elapsed=round(self.elapsed(), 3))
@@ -437,7 +439,8 @@ def _as_presentation(presentation):
 def reduce(presentation, *, strategy: str = "auto", time: float | None = None,
            steps: int | None = None, seed: int = 0, run_dir=None, quiet: bool = True,
            objective: str = "bridges", kinds=None, params: dict | None = None,
-           handle_signals: bool = True, runs_root=DEFAULT_RUNS) -> ReduceResult:
+           handle_signals: bool = True, checkpoint_every: float = CHECKPOINT_EVERY,
+           runs_root=DEFAULT_RUNS) -> ReduceResult:
     """Search for the simplest plat of the link of ``presentation``.
 
     Parameters
@@ -466,6 +469,11 @@ def reduce(presentation, *, strategy: str = "auto", time: float | None = None,
     handle_signals : bool
         Catch SIGINT/SIGTERM (main thread only): write a final checkpoint and return
         with status ``"interrupted"``.
+    checkpoint_every : float
+        Seconds between checkpoints of the search state (a kill -9 loses at most this
+        much work; new bests are written within half a second).
+    runs_root : path-like
+        Parent of new run folders (default ``runs``).
 
     Returns
     -------
@@ -500,6 +508,9 @@ def reduce(presentation, *, strategy: str = "auto", time: float | None = None,
         time = DEFAULT_TIME
     if isinstance(seed, bool) or not isinstance(seed, int):
         raise InputError(f"seed: expected an integer, got {seed!r}")
+    if not (isinstance(checkpoint_every, (int, float)) and checkpoint_every > 0):
+        raise InputError(f"checkpoint_every: expected a positive number of seconds, got "
+                         f"{checkpoint_every!r}")
     obj = make_objective(objective)
     if kinds is not None:
         kinds = sorted(set(kinds))
@@ -512,6 +523,7 @@ def reduce(presentation, *, strategy: str = "auto", time: float | None = None,
         "format": "plait-search-config/1",
         "strategy": strategy, "time": time, "steps": steps, "seed": seed,
         "objective": obj.spec(), "kinds": kinds, "params": params,
+        "checkpoint_every": float(checkpoint_every),
     }
     input_obj = presentation_to_obj(pres)
     lower, reasons = _lower_bound(start)

@@ -35,6 +35,12 @@ class BeamParams:
         Random moves applied to each restart state (perturbation).
     visited_cap : int
         How many canonical words the visited set remembers.
+    lookahead : int
+        Greedy isolating moves tried (:func:`plait.moves.destabilize_all` with ``seek``)
+        from the most isolated state of a generation while bridges exceed the lower
+        bound; 0 turns the lookahead off.
+    lookahead_every : int
+        Generations between two lookaheads.
     """
 
     width: int = 24
@@ -45,6 +51,8 @@ class BeamParams:
     patience: int = 8
     kick: int = 6
     visited_cap: int = 20000
+    lookahead: int = 6
+    lookahead_every: int = 2
 
 
 class BeamSearch:
@@ -168,6 +176,7 @@ class BeamSearch:
             j = ctx.rng.randrange(len(rest))
             rest[j], rest[-1] = rest[-1], rest[j]
             take(rest.pop())
+        self._lookahead(new_beam)
         for p, _ in new_beam:
             self.visited.add(word_hash(p))
         self.generation += 1
@@ -176,6 +185,25 @@ class BeamSearch:
             self._restart()
         else:
             self.beam = new_beam
+
+    def _lookahead(self, new_beam: list[tuple[PlatWord, int]]) -> None:
+        """Seek a destabilization from the most isolated state of the new beam: greedy
+        moves that leave fewer letters on some pair, until the stabilization pattern
+        shows (then it is removed). A success joins the beam in front."""
+        ctx = self.ctx
+        if (not self.p.lookahead or self.generation % self.p.lookahead_every
+                or not new_beam):
+            return
+        cands = [(ctx.guide_key(p), p.strands, p.word, i) for i, (p, _) in enumerate(new_beam)
+                 if p.bridges > ctx.lower_bound]
+        if not cands:
+            return
+        *_, i = min(cands)
+        plat, node = new_beam[i]
+        new, node2 = ctx.destabilize(plat, node, seek=self.p.lookahead)
+        if new.bridges < plat.bridges and word_hash(new) not in self.visited:
+            new_beam.insert(0, (new, node2))
+            ctx.offer(new, node2)
 
     def _restart(self) -> None:
         """New beam: the best plat and copies of it kicked by random moves."""

@@ -224,12 +224,13 @@ class SearchContext:
             return plat, node
         return can, self.paths.extend(node, list(recs), can)
 
-    def destabilize(self, plat: PlatWord, node: int) -> tuple[PlatWord, int]:
-        """Remove every stabilization the move graph can see, recording the moves."""
+    def destabilize(self, plat: PlatWord, node: int, seek: int = 0) -> tuple[PlatWord, int]:
+        """Remove every stabilization the move graph can see, recording the moves; with
+        ``seek > 0`` also take up to that many greedy isolating moves looking for one."""
         fn = getattr(_moves, "destabilize_all", None)
         if fn is None or plat.bridges <= self.lower_bound:
             return plat, node
-        new, recs = fn(plat)
+        new, recs = fn(plat, seek=seek) if seek else fn(plat)
         if not recs:
             return plat, node
         return new, self.paths.extend(node, list(recs), new)

@@ -31,6 +31,8 @@ def configure(p: argparse.ArgumentParser) -> None:
                         "or weighted[:W] (W letters per bridge)")
     p.add_argument("--run-dir", metavar="DIR",
                    help="run folder (default: a new folder under runs/)")
+    p.add_argument("--checkpoint-every", type=float, default=3.0, metavar="SECONDS",
+                   help="seconds between checkpoints of the search state (default 3)")
     p.add_argument("--json", action="store_true", help="print one JSON object")
     p.add_argument("--quiet", action="store_true", help="no progress bar")
 
@@ -63,5 +65,5 @@ def run(args: argparse.Namespace) -> int:
     pres = load_input(args)
     res = reduce(pres, strategy=args.strategy, time=args.time, steps=args.steps,
                  seed=args.seed, run_dir=args.run_dir, quiet=args.quiet or args.json,
-                 objective=args.objective)
+                 objective=args.objective, checkpoint_every=args.checkpoint_every)
     return report(res, args.json)
