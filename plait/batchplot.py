@@ -234,8 +234,9 @@ def _histogram(times: list[float]) -> Node:
         while i < len(counts) - 1 and t >= edges[i + 1]:
             i += 1
         counts[i] += 1
-    yt = _ticks(0, max(counts + [1]), integer=True)
-    if yt[-1] < max(counts + [1]):
+    tallest = max(counts + [1])
+    yt = _ticks(0, tallest * 1.1, integer=True)
+    if yt[-1] < tallest * 1.1:
         yt.append(yt[-1] + (yt[1] - yt[0] if len(yt) > 1 else 1))
     cmax = yt[-1]  # the axis ends on a tick at or above the tallest bar
     if log:

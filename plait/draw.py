@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import math
 import os
+import textwrap
 from collections import Counter
 from collections.abc import Iterable, Sequence
 from dataclasses import dataclass, field
@@ -511,12 +512,17 @@ def _frame(panels: list[tuple[Node, float, float]], style: Style, notes: Iterabl
     # Lay panels side by side with an arrow between them and notes underneath.
     margin = 18.0
     arrow_w = 56.0 if between else 30.0
-    notes = [s for s in notes if s]
     body_h = max(h for _, _, h in panels)
     top = margin + (26.0 if heading else 0.0)
     width = margin * 2 + sum(w for _, w, _ in panels) + arrow_w * (len(panels) - 1)
+    # notes wrap to the width of the picture (at least about 60 characters)
+    chars = max(60, int((width - 2 * margin) / _text_width("x", 11)))
+    # (a count and its move kind, "3 × twist", stay on one line)
+    notes = [line for s in notes if s
+             for line in textwrap.wrap(s.replace(" \u00d7 ", "\u00a0\u00d7\u00a0"), chars)]
     if heading:
         width = max(width, margin * 2 + _text_width(heading, 15))
+    width = max([width] + [margin * 2 + _text_width(t, 11) for t in notes])
     note_h = 16.0 * len(notes) + (6.0 if notes else 0.0)
     height = top + margin + body_h + note_h
     root = Node("svg", {"class": "plait-drawing"})

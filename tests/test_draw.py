@@ -388,7 +388,7 @@ def test_cli_draw_run_folder(tmp_path, capsys, layout):
     out = tmp_path / "best.svg"
     code, text, _ = run(["draw", str(folder), "--out", str(out)], capsys)
     assert code == 0
-    svg = out.read_text()
+    svg = out.read_text().replace("\u00a0", " ")
     (panel,) = panels(svg)
     check_panel(panel, rf.best)
     assert "certificate: 4 moves (2 \u00d7 cancel, 1 \u00d7 destab, 1 \u00d7 twist)" in svg
