@@ -2,7 +2,7 @@
 
 from plait.moves.canonical import canonical, canonical_with_moves
 from plait.moves.certificate import load_certificate, verify_certificate, write_certificate
-from plait.moves.graph import apply_move, neighbor_deltas, neighbors
+from plait.moves.graph import apply_move, handle_shorten, neighbor_deltas, neighbors
 from plait.moves.pairing import artin_action, generator_word, in_pairing_subgroup
 from plait.moves.records import (
     BOTTOM,
@@ -34,6 +34,7 @@ __all__ = [
     "neighbors",
     "neighbor_deltas",
     "apply_move",
+    "handle_shorten",
     "replay",
     "ReplayResult",
     "canonical",

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from functools import cache
+
 from plait.moves.pairing import generator_word
 from plait.moves.records import BOTTOM, TOP, MoveRecord, fast_plat
 from plait.moves.rewrite import (
@@ -19,15 +21,36 @@ __all__ = ["canonical", "canonical_with_moves", "canonical_word"]
 _BLOCK_KINDS = ("swap", "lthread", "rthread")
 
 
-def _find_block(word: list[int], strands: int) -> tuple[str, int, int, list[int]] | None:
-    # a four-letter pairing-subgroup generator that commutes up to the top of ``word``
+@cache
+def _blocks(strands: int) -> dict[int, tuple[tuple[str, int, int, tuple[int, ...]], ...]]:
+    # four-letter generators grouped by their first letter
+    out: dict[int, list] = {}
     for i in range(1, strands // 2):
         for kind in _BLOCK_KINDS:
             for e in (1, -1):
                 h = generator_word(kind, i, e, strands)
-                pos = take_block(word, h)
-                if pos is not None:
-                    return kind, i, e, pos
+                out.setdefault(h[0], []).append((kind, i, e, h))
+    return {k: tuple(v) for k, v in out.items()}
+
+
+def _find_block(word: list[int], strands: int) -> tuple[str, int, int, list[int]] | None:
+    # a four-letter pairing-subgroup generator that commutes up to the top of ``word``;
+    # its first letter must be a letter that reaches the top by itself
+    blocks = _blocks(strands)
+    blocked: set[int] = set()
+    firsts = []
+    for x in word:
+        k = abs(x)
+        if k not in blocked and not k & 1:
+            firsts.append(x)
+        blocked.update((k - 1, k, k + 1))
+        if len(blocked) >= strands + 1:
+            break
+    for x in firsts:
+        for kind, i, e, h in blocks.get(x, ()):
+            pos = take_block(word, h)
+            if pos is not None:
+                return kind, i, e, pos
     return None
 
 

@@ -25,7 +25,7 @@ from plait.moves.stabilize import destab_sites, destabilize_word, stab_letters, 
 
 from plait.word import PlatWord
 
-__all__ = ["apply_move", "neighbor_deltas", "neighbors", "multiply"]
+__all__ = ["apply_move", "neighbor_deltas", "neighbors", "multiply", "handle_shorten"]
 
 
 @cache
@@ -204,3 +204,32 @@ def neighbors(
     """
     for rec, _len in neighbor_deltas(plat, kinds):
         yield rec, apply_move(plat, rec)
+
+
+def handle_shorten(plat: PlatWord, max_steps: int = 10_000) -> tuple[PlatWord, list[MoveRecord]]:
+    """Shorten a word by handle reductions and cancellations that lower its length.
+
+    A length-reducing macro built from Dehornoy's handle reduction: at each step the
+    handle reduction or free cancellation giving the shortest word is applied, as long as
+    it is strictly shorter. The braid (not only its plat closure) never changes.
+
+    Returns
+    -------
+    (PlatWord, list of MoveRecord)
+
+    References
+    ----------
+    .. [1] P. Dehornoy, "A fast method for comparing braids", Adv. Math. 125 (1997).
+    """
+    cur = plat
+    records: list[MoveRecord] = []
+    for _ in range(max_steps):
+        best = None
+        for rec, L in neighbor_deltas(cur, ("handle", "cancel")):
+            if L < cur.length and (best is None or L < best[1]):
+                best = (rec, L)
+        if best is None:
+            break
+        cur = apply_move(cur, best[0])
+        records.append(best[0])
+    return cur, records

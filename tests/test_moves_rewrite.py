@@ -101,3 +101,22 @@ def test_handle_reduction_keeps_the_braid():
             new = w[:p] + reduce_handle(w, p, q) + w[q + 1 :]
             assert same_braid(w, new, 6), (w, p, q)
     assert seen > 50
+
+
+def test_handle_shorten_keeps_the_braid_and_replays():
+    # source: Dehornoy 1997 (handle reduction keeps the braid); checked with Artin's action
+    from plait.moves import handle_shorten, replay
+
+    from plait.word import PlatWord
+
+    rng = random.Random(11)
+    shortened = 0
+    for _ in range(60):
+        w = tuple(rng.choice((1, -1)) * rng.randint(1, 3) for _ in range(rng.randint(0, 10)))
+        p = PlatWord(4, w)
+        q, recs = handle_shorten(p)
+        assert q.length <= p.length
+        shortened += q.length < p.length
+        assert same_braid(p.word, q.word, 4)
+        assert replay(p, recs).final == q
+    assert shortened > 10
