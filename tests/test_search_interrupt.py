@@ -1,0 +1,106 @@
+"""Interrupted searches: kill -9 and SIGINT during a run, then ``plait resume``."""
+
+from __future__ import annotations
+
+import json
+import os
+import signal
+import subprocess
+import sys
+import time
+from pathlib import Path
+
+import plait.moves as moves
+import pytest
+from kidata import knot
+from plait.search import reduce
+
+from plait.cli import main
+from plait.formats import presentation_to_obj
+from plait.word import ClosedBraid, PlatWord
+
+pytestmark = pytest.mark.skipif(os.name != "posix", reason="POSIX signals")
+
+STEPS = 1500
+SEED = 4
+
+
+@pytest.fixture(scope="module")
+def scrambled(tmp_path_factory):
+    # source: KnotInfo via database-knotinfo (braid notation of 8_18)
+    clean = ClosedBraid.from_word(knot("8_18").braid).to_plat()
+    scr, _ = moves.scramble(clean, seed=2)
+    d = tmp_path_factory.mktemp("input")
+    path = d / "scr.json"
+    path.write_text(json.dumps(presentation_to_obj(scr)))
+    ref = reduce(scr, strategy="auto", steps=STEPS, seed=SEED, run_dir=d / "ref")
+    return path, ref
+
+
+def _start(path: Path, run_dir: Path) -> subprocess.Popen:
+    cmd = [sys.executable, "-m", "plait.cli", "reduce", "--file", str(path), "--strategy",
+           "auto", "--steps", str(STEPS), "--seed", str(SEED), "--run-dir", str(run_dir),
+           "--checkpoint-every", "0.2", "--quiet", "--json"]
+    return subprocess.Popen(cmd, stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
+
+
+def _wait_for_progress(proc: subprocess.Popen, run_dir: Path, min_steps: int) -> None:
+    """Wait until a checkpoint past ``min_steps`` steps is on disk."""
+    deadline = time.monotonic() + 60
+    while time.monotonic() < deadline:
+        assert proc.poll() is None, "the run ended before it could be interrupted"
+        try:
+            state = json.loads((run_dir / "state.json").read_text())
+            if state["steps"] >= min_steps:
+                return
+        except (FileNotFoundError, json.JSONDecodeError, KeyError):
+            pass
+        time.sleep(0.02)
+    raise AssertionError("no checkpoint appeared")
+
+
+def _resume_json(run_dir: Path, capsys) -> dict:
+    capsys.readouterr()
+    assert main(["resume", str(run_dir), "--json"]) == 0
+    return json.loads(capsys.readouterr().out)
+
+
+def _same(out: dict, ref) -> None:
+    r = ref.to_json()
+    for key in ("result", "input", "bridge_bounds", "steps"):
+        assert out[key] == r[key], key
+
+
+def test_kill_9_then_resume_gives_the_same_verified_result(scrambled, tmp_path, capsys):
+    path, ref = scrambled
+    run_dir = tmp_path / "k"
+    proc = _start(path, run_dir)
+    _wait_for_progress(proc, run_dir, STEPS // 3)
+    proc.kill()
+    assert proc.wait() == -signal.SIGKILL
+    out = _resume_json(run_dir, capsys)
+    _same(out, ref)  # same seed + step budget: identical with and without the kill
+    assert moves.verify_certificate(out["certificate"]).ok
+    assert main(["verify", out["certificate"]]) == 0
+
+
+def test_sigint_leaves_a_consistent_run_folder(scrambled, tmp_path, capsys):
+    path, ref = scrambled
+    run_dir = tmp_path / "i"
+    proc = _start(path, run_dir)
+    _wait_for_progress(proc, run_dir, STEPS // 4)
+    proc.send_signal(signal.SIGINT)
+    _, err = proc.communicate(timeout=60)
+    assert proc.returncode == 130, err
+    assert "plait resume" in err
+    state = json.loads((run_dir / "state.json").read_text())
+    assert state["status"] == "interrupted" and 0 < state["steps"] < STEPS
+    best = json.loads((run_dir / "best.json").read_text())
+    cert = moves.verify_certificate(run_dir / "certificate.json")
+    assert cert.ok
+    assert cert.final == PlatWord(best["strands"], tuple(best["word"]))
+    assert state["best"]["word"] == best["word"]
+    events = [json.loads(x)["event"] for x in (run_dir / "log.jsonl").read_text().splitlines()]
+    assert events[-1] == "interrupted"
+    out = _resume_json(run_dir, capsys)
+    _same(out, ref)
