@@ -11,7 +11,7 @@ from dataclasses import dataclass, field
 from plait.moves.records import MoveRecord
 from plait.moves.replay import ReplayResult, replay
 
-from plait.atomic import write_json_atomic
+from plait.atomic import write_text_atomic
 from plait.errors import InputError
 from plait.word import PlatWord
 
@@ -81,7 +81,24 @@ def write_certificate(
         "meta": meta or {},
         "digest": certificate_digest(s, moves, e, input_presentation_obj),
     }
-    write_json_atomic(path, obj)
+    write_text_atomic(path, _layout(obj))
+
+
+def _layout(obj: dict) -> str:
+    # one key per line and one move per line: readable, diffable, and still plain JSON
+    lines = ["{"]
+    items = list(obj.items())
+    for t, (k, v) in enumerate(items):
+        end = "," if t + 1 < len(items) else ""
+        if k == "moves":
+            lines.append('  "moves": [')
+            for u, m in enumerate(v):
+                lines.append("    " + json.dumps(m) + ("," if u + 1 < len(v) else ""))
+            lines.append("  ]" + end)
+        else:
+            lines.append(f"  {json.dumps(k)}: {json.dumps(v)}{end}")
+    lines.append("}")
+    return "\n".join(lines) + "\n"
 
 
 def _plat_field(obj: dict, key: str) -> PlatWord:

@@ -36,7 +36,12 @@ def run(args: argparse.Namespace) -> int:
               f"{cert.start.length} crossings to a {cert.end.bridges}-bridge plat with "
               f"{cert.end.length} crossings")
         return 0
-    where = "certificate" if res.failed_step is None else (
-        "end word" if res.failed_step == len(cert.records) else f"step {res.failed_step}")
+    n = len(cert.records)
+    if res.failed_step is None:
+        where = "certificate"
+    elif res.failed_step == n:
+        where = "end word"
+    else:  # steps are counted from 1 here, from 0 in the API
+        where = f"step {res.failed_step + 1} of {n}"
     print(f"invalid: {where}: {res.reason}")
     return 1
