@@ -29,8 +29,8 @@ __all__ = [
 # Catalan(11) = 58786 states: the largest state space built on request.
 MAX_JONES_BRIDGES = 11
 
-# Values whose absolute value may reach this bound switch the state vector from int64 to
-# Python integers (object arrays), so every coefficient stays exact.
+# When a bound on the int64 entries of the state vector may reach this, carries are
+# propagated between 32-bit limbs (and a limb is added), so every coefficient stays exact.
 _INT64_SAFE = 1 << 62
 
 Poly = dict  # {exponent: coefficient}, exponents int (A) or Fraction (t), no zero values
@@ -116,8 +116,9 @@ def _space(n: int) -> _Space:
                         np.array([p[1] for p in pairs], dtype=np.intp)))
         loops.append(is_loop)
         layers.append(tuple(lay))
-        # id term plus either two loop terms (loop states) or `depth` incoming terms
-        growth.append(1 + max(2, depth))
+        # the targets of e_k are the loop states: each gets its id term, two loop terms
+        # and at most `depth` incoming terms
+        growth.append(3 + depth)
     cup_loops = np.array([_count_cup_loops(s) for s in states], dtype=np.int64)
     return _Space(n, tuple(states), start, tuple(loops), tuple(layers), tuple(growth),
                   cup_loops)
@@ -172,8 +173,9 @@ def bracket(plat: PlatWord) -> dict[int, int]:
     Cost is ``O(length * Catalan(n) * width)`` with ``width`` the spread of exponents,
     linear in the word length for fixed ``n``. Polynomials are stored as rows of an
     integer array whose column ``c`` holds exponent ``lo + 2c`` (after ``j`` letters all
-    exponents have the parity of ``j``). Rows are int64 while a bound on the entries
-    stays below 2^62, and Python integers after that.
+    exponents have the parity of ``j``). Large coefficients are split into int64 limbs
+    of 32 bits, carried whenever a bound on the entries nears 2^62, so the arithmetic is
+    exact and stays vectorised.
 
     References
     ----------
@@ -187,52 +189,54 @@ def bracket(plat: PlatWord) -> dict[int, int]:
                          f"for the Temperley-Lieb state vector")
     sp = _space(n)
     S = len(sp.states)
-    V = np.zeros((S, 1), dtype=np.int64)
-    V[sp.start, 0] = 1
+    # V[k, s, c]: limb k of the coefficient of A^(lo + 2c) in state s; the coefficient
+    # is sum_k V[k, s, c] * 2^(32 k). All operations are additions, so limbs are added
+    # independently and carried only when a bound on |entries| nears 2^62.
+    V = np.zeros((1, S, 1), dtype=np.int64)
+    V[0, sp.start, 0] = 1
     lo = 0
     bound = 1  # bound on max |entry| of V
     for g in plat.word:
         k = abs(g)
         eps = 1 if g > 0 else -1
         growth = sp.growth[k]
-        if V.dtype != object and bound * growth >= _INT64_SAFE:
-            bound = int(np.abs(V).max())
-            if bound * growth >= _INT64_SAFE:
-                V = V.astype(object)
-        W = V.shape[1]
-        N = np.zeros((S, W + 2), dtype=V.dtype)
+        if bound * growth >= _INT64_SAFE:
+            V, bound = _carry(V)
+        K, _, W = V.shape
+        N = np.zeros((K, S, W + 2), dtype=np.int64)
         # new column c' holds exponent lo' + 2c'; lo' = lo - 3 (eps = 1) or lo - 1
         # (eps = -1). id term A^eps lands at offset 2 or 0, e_k term A^-eps at offset 1,
         # and a closed loop gives A^-eps d = -A^(2-eps) - A^(-2-eps) at offsets 2 and 0.
         if eps == 1:
-            N[:, 2:] += V
+            N[:, :, 2:] += V
             lo -= 3
         else:
-            N[:, :W] += V
+            N[:, :, :W] += V
             lo -= 1
         lp = sp.loop[k]
-        VL = V[lp]
-        N[lp, :W] -= VL
-        N[lp, 2:] -= VL
+        VL = V[:, lp]
+        N[:, lp, :W] -= VL
+        N[:, lp, 2:] -= VL
         for src, dst in sp.layers[k]:
-            N[dst, 1:W + 1] += V[src]
+            N[:, dst, 1:W + 1] += V[:, src]
         bound *= growth
         # drop all-zero columns at both ends
-        nz = np.flatnonzero(N.any(axis=0))
+        nz = np.flatnonzero(N.any(axis=(0, 1)))
         if len(nz) == 0:
             return {}
         a, b = int(nz[0]), int(nz[-1]) + 1
-        if a or b < N.shape[1]:
-            N = N[:, a:b]
+        if a or b < N.shape[2]:
+            N = N[:, :, a:b]
             lo += 2 * a
         V = N
+    # combine the limbs into Python integers
+    X = V[0].astype(object)
+    for k in range(1, V.shape[0]):
+        X = X + (V[k].astype(object) << (_LIMB * k))
     # close with the cups: sum the rows by loop count, times d^(loops - 1)
     out: dict[int, int] = {}
     for c in np.unique(sp.cup_loops):
-        rows = V[sp.cup_loops == c]
-        if V.dtype != object:
-            rows = rows.astype(object)
-        total = rows.sum(axis=0).tolist()
+        total = X[sp.cup_loops == c].sum(axis=0).tolist()
         dpow = _d_power(int(c) - 1)
         for col, coeff in enumerate(total):
             if coeff:
@@ -240,6 +244,28 @@ def bracket(plat: PlatWord) -> dict[int, int]:
                 for de, dc in dpow.items():
                     out[e + de] = out.get(e + de, 0) + int(coeff) * dc
     return {e: c for e, c in sorted(out.items()) if c}
+
+
+_LIMB = 32
+_TOP_SPLIT = 1 << 40
+
+
+def _carry(V: np.ndarray) -> tuple[np.ndarray, int]:
+    # Propagate carries so limbs 0..K-2 lie in [0, 2^32); split the top limb when it is
+    # large. Returns the new array and a bound on its entries.
+    V = V.copy()
+    K = V.shape[0]
+    for k in range(K - 1):
+        c = V[k] >> _LIMB
+        V[k] -= c << _LIMB
+        V[k + 1] += c
+    top = int(np.abs(V[K - 1]).max())
+    if top >= _TOP_SPLIT:
+        c = V[K - 1] >> _LIMB
+        V[K - 1] -= c << _LIMB
+        V = np.concatenate([V, c[None]], axis=0)
+        top = int(np.abs(c).max())
+    return V, max(top, 1 << _LIMB)
 
 
 @lru_cache(maxsize=64)
