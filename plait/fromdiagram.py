@@ -6,8 +6,8 @@ from dataclasses import dataclass
 
 from plait.errors import GuardViolation, InputError
 from plait.heights import DIRECTIONS, Degenerate, drawing, lift, sweep_plat
-from plait.pd import PDCode, pd_components, plat_to_pd
-from plait.pdjones import pd_jones, pd_jones_all_orientations
+from plait.pd import PDCode, pd_components
+from plait.pdjones import pd_jones, pd_jones_all_orientations, plat_jones
 from plait.wirtinger import Wirtinger, wirtinger
 from plait.word import PlatWord
 
@@ -104,7 +104,7 @@ def check_plat(pd: PDCode, plat: PlatWord) -> None:
         if plat.word:
             raise GuardViolation("jones", {0: 1}, None, "diagram -> plat")
         return
-    mine = pd_jones(plat_to_pd(plat)) if plat.word else {0: 1}
+    mine = plat_jones(plat)
     if ncomp == 1:
         theirs = pd_jones(pd)
         if mine != theirs:

@@ -4,10 +4,18 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from plait.pd import PDCode
+from plait.pd import PDCode, plat_to_pd
 from plait.wirtinger import occurrence_roles, strand_walks
+from plait.word import PlatWord
 
-__all__ = ["pd_bracket", "pd_crossing_signs", "pd_jones", "pd_jones_all_orientations"]
+__all__ = [
+    "pd_bracket",
+    "pd_crossing_signs",
+    "pd_jones",
+    "pd_jones_all_orientations",
+    "plat_jones",
+    "plat_jones_all_orientations",
+]
 
 # Laurent polynomials in A are dicts {exponent: coefficient} with no zero coefficients.
 Poly = dict[int, int]
@@ -173,3 +181,46 @@ def pd_jones_all_orientations(pd: PDCode) -> list[dict[Fraction, int]]:
                 for s, (u, o) in zip(signs, pairs, strict=True))
         out.append(_jones_from(br, w))
     return out
+
+
+def _strip_split_unknots(plat: PlatWord) -> tuple[PlatWord | None, int]:
+    # cap pairs whose positions no letter touches are split unknotted components
+    touched = {abs(g) for g in plat.word} | {abs(g) + 1 for g in plat.word}
+    free = [i for i in range(1, plat.bridges + 1)
+            if 2 * i - 1 not in touched and 2 * i not in touched]
+    keep = [p for p in range(1, plat.strands + 1) if (p + 1) // 2 not in free]
+    new_pos = {p: k + 1 for k, p in enumerate(keep)}
+    word = tuple((1 if g > 0 else -1) * new_pos[abs(g)] for g in plat.word)
+    return (PlatWord(len(keep), word) if word else None), len(free)
+
+
+def _times_loops(v: dict[Fraction, int], k: int) -> dict[Fraction, int]:
+    loop = {Fraction(1, 2): -1, Fraction(-1, 2): -1}  # -t^(1/2) - t^(-1/2)
+    for _ in range(k):
+        out: dict[Fraction, int] = {}
+        for e1, c1 in v.items():
+            for e2, c2 in loop.items():
+                out[e1 + e2] = out.get(e1 + e2, 0) + c1 * c2
+        v = {e: c for e, c in out.items() if c}
+    return v
+
+
+def plat_jones(plat: PlatWord) -> dict[Fraction, int]:
+    """Jones polynomial of a plat closure (plait's orientation: each component from its
+    first cap, going down), through its PD code.
+
+    A cap pair whose positions no letter touches is a split unknotted component, which
+    has no PD code; each one multiplies the rest by ``-t^(1/2) - t^(-1/2)``.
+    """
+    rest, free = _strip_split_unknots(plat)
+    if rest is None:
+        return _times_loops({Fraction(0): 1}, free - 1)
+    return _times_loops(pd_jones(plat_to_pd(rest)), free)
+
+
+def plat_jones_all_orientations(plat: PlatWord) -> list[dict[Fraction, int]]:
+    """Jones polynomials of the plat closure under every reorientation of components."""
+    rest, free = _strip_split_unknots(plat)
+    if rest is None:
+        return [_times_loops({Fraction(0): 1}, free - 1)]
+    return [_times_loops(v, free) for v in pd_jones_all_orientations(plat_to_pd(rest))]
