@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Iterator, Sequence
 from dataclasses import dataclass, field
-from functools import cache
+from functools import cache, lru_cache
 from itertools import permutations
 
 from plait.pd import trace_plat
@@ -20,8 +20,10 @@ __all__ = [
     "hyperoctahedral_group",
     "conjugacy_class",
     "generated_subgroup",
-    "over_directions",
+    "Arcs",
+    "plat_arcs",
     "count_homomorphisms",
+    "SearchBudgetExceeded",
     "coloring_representatives",
     "meridional_rank_witness",
 ]
@@ -231,75 +233,133 @@ def _tables(name: str) -> _Tables:
     return _Tables(t.klass, fwd, bwd, act)
 
 
-def over_directions(plat: PlatWord) -> tuple[int, ...]:
-    """Direction of the over strand at each letter: ``+1`` running down the word, ``-1``
-    running up, for the orientation of :func:`plait.pd.trace_plat`."""
-    out = [0] * plat.length
+@dataclass(frozen=True)
+class Arcs:
+    """The arcs of the plat diagram and the crossing relations between them.
+
+    An arc runs along the link from one under-passage to the next; its label is the image
+    of its meridian. For letter ``j``: ``over[j]`` is the over arc, ``top[j]`` and
+    ``bottom[j]`` are the under arcs on the top and bottom side of the crossing (in the
+    word's vertical order), and ``twist[j]`` is ``+1`` when ``bottom = a top a^-1`` with
+    ``a`` the over label, ``-1`` when ``bottom = a^-1 top a``.
+    """
+
+    count: int
+    over: tuple[int, ...]
+    top: tuple[int, ...]
+    bottom: tuple[int, ...]
+    twist: tuple[int, ...]
+
+
+def plat_arcs(plat: PlatWord) -> Arcs:
+    """The :class:`Arcs` of the plat diagram, oriented as in :func:`plait.pd.trace_plat`.
+
+    The twist of letter ``j`` is ``sign(letter) * d`` with ``d = +1`` when the over strand
+    runs down the word: for sigma_k with the over strand running down, the under strand
+    passes from the right of the over strand to its left going down, which conjugates its
+    meridian by the over arc's, ``c = a b a^-1`` (Wirtinger's relation).
+    """
     word = plat.word
+    L = len(word)
+    over = [-1] * L
+    top = [-1] * L
+    bottom = [-1] * L
+    twist = [0] * L
+    count = 0
     for path in trace_plat(plat):
+        passages = []
         for j, direction, p, q in path:
             k = abs(word[j])
-            top = p if direction == 1 else q
-            # sigma_k: the strand entering at the top at k+1 passes over; sigma_k^-1: at k
-            over_top = k + 1 if word[j] > 0 else k
-            if top == over_top:
-                out[j] = direction
-    return tuple(out)
+            top_pos = p if direction == 1 else q
+            is_over = top_pos == (k + 1 if word[j] > 0 else k)
+            passages.append((j, direction, is_over))
+            if is_over:
+                twist[j] = (1 if word[j] > 0 else -1) * direction
+        unders = [i for i, (_, _, ov) in enumerate(passages) if not ov]
+        start = count
+        count += max(len(unders), 1)
+        # arcs change right after each under passage; passages before the first under
+        # passage belong to the component's last arc (the component closes up)
+        cur = start + len(unders) - 1 if unders else start
+        nxt = start
+        for j, direction, is_over in passages:
+            if is_over:
+                over[j] = cur
+                continue
+            before, after = cur, nxt
+            nxt += 1
+            cur = after
+            if direction == 1:
+                top[j], bottom[j] = before, after
+            else:
+                top[j], bottom[j] = after, before
+    return Arcs(count, tuple(over), tuple(top), tuple(bottom), tuple(twist))
 
 
 @dataclass(frozen=True)
-class _Plan:
-    # order: caps in the order the word first touches one of their strands (untouched
-    # caps last); segments[i] = letters to push after assigning order[i]; checks[i] =
-    # cups whose two positions are never touched again after segment i.
-    order: tuple[int, ...]
-    segments: tuple[tuple[tuple[int, int, int], ...], ...]
-    checks: tuple[tuple[int, ...], ...]
+class _Program:
+    # stages[i] = (seed arc, ops, checks): after labelling the seed, each op
+    # (dst, over, src, twist) sets label[dst] from label[over] and label[src]; each check
+    # (dst, over, src, twist) requires label[dst] to equal that value. Seeds are chosen
+    # greedily so that each one determines as many arcs as possible.
+    stages: tuple[tuple[int, tuple, tuple], ...]
+    arcs: Arcs
 
 
-def _plan(plat: PlatWord) -> _Plan:
-    word = plat.word
-    n = plat.bridges
-    dirs = over_directions(plat)
-    last = [-1] * (plat.strands + 1)
-    for j, g in enumerate(word):
-        last[abs(g)] = last[abs(g) + 1] = j
-    touched = [False] * n
-    pos_touched = [False] * (plat.strands + 1)
-    order: list[int] = []
-    starts: list[int] = []
-    for j, g in enumerate(word):
-        for pos in (abs(g), abs(g) + 1):
-            # a position no letter has touched still holds the strand of its own cap
-            # (pos-1)//2; the first letter touching either end of a cap fixes its label
-            cap = (pos - 1) // 2
-            if not touched[cap] and not pos_touched[pos]:
-                touched[cap] = True
-                order.append(cap)
-                starts.append(j)
-        pos_touched[abs(g)] = pos_touched[abs(g) + 1] = True
-    for cap in range(n):
-        if not touched[cap]:
-            order.append(cap)
-            starts.append(len(word))
-    ends = starts[1:] + [len(word)]
-    segments = []
-    checks: list[list[int]] = [[] for _ in order]
-    for a, b in zip(starts, ends, strict=True):
-        seg = []
-        for j in range(a, b):
-            g = word[j]
-            # (position index 0-based, letter sign, over-strand direction)
-            seg.append((abs(g) - 1, 1 if g > 0 else -1, dirs[j]))
-        segments.append(tuple(seg))
-    for cup in range(n):
-        done = max(last[2 * cup + 1], last[2 * cup + 2])
-        # the first segment after which this cup's positions are final
-        for i, b in enumerate(ends):
-            if done < b:
-                checks[i].append(cup)
-                break
-    return _Plan(tuple(order), tuple(segments), tuple(tuple(c) for c in checks))
+def _propagate(arcs: Arcs, known: list[bool], by_arc: list[list[int]],
+               queue: list[int], used: list[bool], ops: list, checks: list | None) -> int:
+    n_new = 0
+    while queue:
+        j = queue.pop()
+        a, t, b, s = arcs.over[j], arcs.top[j], arcs.bottom[j], arcs.twist[j]
+        if used[j] or not known[a]:
+            continue
+        if known[t] and known[b]:
+            used[j] = True
+            if checks is not None:
+                checks.append((b, a, t, s))
+            continue
+        if known[t]:
+            dst, src, tw = b, t, s
+        elif known[b]:
+            dst, src, tw = t, b, -s
+        else:
+            continue
+        used[j] = True
+        known[dst] = True
+        n_new += 1
+        ops.append((dst, a, src, tw))
+        queue.extend(by_arc[dst])
+    return n_new
+
+
+@lru_cache(maxsize=4096)
+def _program(plat: PlatWord) -> _Program:
+    arcs = plat_arcs(plat)
+    n = arcs.count
+    by_arc: list[list[int]] = [[] for _ in range(n)]
+    for j in range(len(arcs.over)):
+        for x in {arcs.over[j], arcs.top[j], arcs.bottom[j]}:
+            by_arc[x].append(j)
+    known = [False] * n
+    used = [False] * len(arcs.over)
+    stages = []
+    while not all(known):
+        best, best_gain = -1, -1
+        for x in range(n):
+            if known[x]:
+                continue
+            k2, u2 = known[:], used[:]
+            k2[x] = True
+            gain = _propagate(arcs, k2, by_arc, list(by_arc[x]), u2, [], None)
+            if gain > best_gain:
+                best, best_gain = x, gain
+        known[best] = True
+        ops: list = []
+        checks: list = []
+        _propagate(arcs, known, by_arc, list(by_arc[best]), used, ops, checks)
+        stages.append((best, tuple(ops), tuple(checks)))
+    return _Program(tuple(stages), arcs)
 
 
 def _orbit_reps(stab: list[int], act, size: int) -> list[tuple[int, int, list[int]]]:
@@ -317,42 +377,47 @@ def _orbit_reps(stab: list[int], act, size: int) -> list[tuple[int, int, list[in
     return out
 
 
-def _search(plat: PlatWord, name: str) -> Iterator[tuple[tuple[int, ...], int]]:
+class SearchBudgetExceeded(Exception):
+    """The homomorphism search pushed more letters than its budget allowed."""
+
+
+def _search(plat: PlatWord, name: str,
+            budget: int | None = None) -> Iterator[tuple[tuple[int, ...], int]]:
+    # Depth-first over the seeds of the program; yields (arc labels, orbit size).
     tabs = _tables(name)
     t = target(name)
-    plan = _plan(plat)
+    prog = _program(plat)
     size = len(tabs.klass)
-    fwd, bwd, act = tabs.fwd, tabs.bwd, tabs.act
-    involutive = t.involutive
-    n = plat.bridges
-    labels = [0] * plat.strands
-    caps = [0] * n
-
-    def push(seg) -> None:
-        for k, e, d in seg:
-            if e > 0:
-                # sigma_k: over strand from top k+1 to bottom k; under from k to k+1
-                a, b = labels[k + 1], labels[k]
-                labels[k] = a
-                labels[k + 1] = fwd[a][b] if (involutive or d > 0) else bwd[a][b]
-            else:
-                a, b = labels[k], labels[k + 1]
-                labels[k + 1] = a
-                labels[k] = bwd[a][b] if (involutive or d > 0) else fwd[a][b]
+    act = tabs.act
+    table = {1: tabs.fwd, -1: tabs.fwd if t.involutive else tabs.bwd}
+    stages = [(seed, tuple((d, a, src, table[tw]) for d, a, src, tw in ops),
+               tuple((d, a, src, table[tw]) for d, a, src, tw in checks))
+              for seed, ops, checks in prog.stages]
+    labels = [0] * prog.arcs.count
+    done = [0]  # operations so far, checked against the budget
+    orbit_memo: dict[tuple[int, ...], list[tuple[int, int, list[int]]]] = {}
 
     def rec(i: int, stab: list[int], weight: int) -> Iterator[tuple[tuple[int, ...], int]]:
-        if i == n:
-            yield tuple(caps), weight
+        if i == len(stages):
+            yield tuple(labels), weight
             return
-        cap = plan.order[i]
-        saved = labels[:]
-        for c, w, sub in _orbit_reps(stab, act, size):
-            labels[2 * cap] = labels[2 * cap + 1] = c
-            caps[cap] = c
-            push(plan.segments[i])
-            if all(labels[2 * u] == labels[2 * u + 1] for u in plan.checks[i]):
+        seed, ops, checks = stages[i]
+        key = tuple(stab)
+        if key not in orbit_memo:
+            orbit_memo[key] = _orbit_reps(stab, act, size)
+        for c, w, sub in orbit_memo[key]:
+            if budget is not None:
+                done[0] += len(ops) + len(checks) + 1
+                if done[0] > budget:
+                    raise SearchBudgetExceeded(name)
+            labels[seed] = c
+            for d, a, src, tab in ops:
+                labels[d] = tab[labels[a]][labels[src]]
+            for d, a, src, tab in checks:
+                if labels[d] != tab[labels[a]][labels[src]]:
+                    break
+            else:
                 yield from rec(i + 1, sub, weight * w)
-            labels[:] = saved
 
     yield from rec(0, list(range(len(t.group))), 1)
 
@@ -376,12 +441,15 @@ def coloring_representatives(plat: PlatWord, name: str) -> Iterator[tuple[tuple[
         yield tuple(klass[c] for c in caps), w
 
 
-@cache
-def _count(plat: PlatWord, name: str) -> int:
-    return sum(w for _, w in _search(plat, name))
+@lru_cache(maxsize=65536)
+def _count(plat: PlatWord, name: str, budget: int | None) -> int | None:
+    try:
+        return sum(w for _, w in _search(plat, name, budget))
+    except SearchBudgetExceeded:
+        return None
 
 
-def count_homomorphisms(plat: PlatWord, name: str) -> int:
+def count_homomorphisms(plat: PlatWord, name: str, budget: int | None = None) -> int | None:
     """Number of homomorphisms from the link group of the plat closure to the target group
     with every meridian sent into the target's conjugacy class.
 
@@ -391,12 +459,15 @@ def count_homomorphisms(plat: PlatWord, name: str) -> int:
         An ``n``-bridge presentation.
     name : str
         A target name, see :data:`TARGETS` and :func:`target`.
+    budget : int, optional
+        Give up (return None) after pushing this many letters in total.
 
     Returns
     -------
-    int
+    int or None
         The count, a link invariant (for links, an invariant of the oriented link; of
-        the unoriented link when the class is closed under inversion).
+        the unoriented link when the class is closed under inversion); None when the
+        budget ran out.
 
     Notes
     -----
@@ -412,7 +483,7 @@ def count_homomorphisms(plat: PlatWord, name: str) -> int:
        (1962): the Wirtinger presentation and counting representations onto finite groups.
     .. [2] R. Riley, "Homomorphisms of knot groups on finite groups", Math. Comp. 25 (1971).
     """
-    return _count(plat, name)
+    return _count(plat, name, budget)
 
 
 def _two_generated(h: frozenset[Perm], labels: Sequence[Perm], involutive: bool) -> bool:
@@ -453,7 +524,7 @@ def _transposition_bound(labels: Sequence[Perm]) -> int:
 
 
 def meridional_rank_witness(plat: PlatWord, name: str,
-                            limit: int = 200_000) -> tuple[int, tuple[Perm, ...]] | None:
+                            budget: int | None = None) -> tuple[int, tuple[Perm, ...]] | None:
     """A homomorphism proving that the link group needs at least 3 meridional generators.
 
     Parameters
@@ -462,8 +533,8 @@ def meridional_rank_witness(plat: PlatWord, name: str,
         A bridge presentation.
     name : str
         A target name.
-    limit : int
-        Give up after this many orbit representatives.
+    budget : int, optional
+        Give up (return None) after pushing this many letters in total.
 
     Returns
     -------
@@ -487,9 +558,12 @@ def meridional_rank_witness(plat: PlatWord, name: str,
     is_transposition = name.endswith("/transposition")
     best: tuple[int, tuple[Perm, ...]] | None = None
     checked: set[frozenset[Perm]] = set()
-    for count, (labels, _) in enumerate(coloring_representatives(plat, name)):
-        if count >= limit:
-            break
+    klass = _tables(name).klass
+    try:
+        reps = [tuple(klass[c] for c in caps) for caps, _ in _search(plat, name, budget)]
+    except SearchBudgetExceeded:
+        return None
+    for labels in reps:
         key = frozenset(labels)
         if key in checked:
             continue

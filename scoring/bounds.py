@@ -1,0 +1,338 @@
+"""Lower bounds on the bridge number of a plat closure, each with the theorem that proves it."""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass, field
+from fractions import Fraction
+from functools import cache, lru_cache
+
+from plait.word import PlatWord
+
+__all__ = [
+    "LowerBound",
+    "bridge_lower_bound",
+    "not_two_bridge",
+    "separating_invariants",
+    "FOX_PRIMES",
+    "WITNESS_TARGETS",
+]
+
+#: Primes tried for Fox colorings besides those dividing the determinant.
+FOX_PRIMES = (3, 5, 7)
+
+#: Targets searched for a meridional-rank witness (reflections of Coxeter groups and
+#: other involution classes; non-involutive classes as a last resort), cheapest first.
+WITNESS_TARGETS = ("S4/transposition", "S5/transposition", "B3/short", "B3/long",
+                   "A4/3-cycle", "S4/4-cycle", "A5/3-cycle", "A5/5-cycle")
+
+#: A homomorphism search gives up (and its count is not used) after pushing this many
+#: letters of the word.
+QUOTIENT_BUDGET = 400_000
+
+
+@dataclass(frozen=True)
+class LowerBound:
+    """A proved lower bound on the bridge number.
+
+    Attributes
+    ----------
+    value : int
+        The bound: the bridge number is at least this.
+    reasons : tuple of str
+        One line per bound that was proved, naming the theorem and the computed quantity.
+    method : str
+        Short name of the method that proved ``value`` (the first reason reaching it).
+    exact : bool
+        Whether ``value`` is attained by the plat itself (its bridge count equals it).
+    """
+
+    value: int
+    reasons: tuple[str, ...] = field(default=())
+    method: str = ""
+    exact: bool = False
+
+    def to_dict(self) -> dict:
+        """JSON-ready form: ``value``, ``reasons`` (list of strings), ``method``, ``exact``."""
+        return {"value": self.value, "reasons": list(self.reasons), "method": self.method,
+                "exact": self.exact}
+
+
+# -- invariants used to tell a plat from the two-bridge candidates ---------------------
+
+
+def _shift_class(poly: dict) -> tuple:
+    """A Laurent polynomial up to multiplication by a power of the variable."""
+    if not poly:
+        return ()
+    low = min(poly)
+    return tuple(sorted((e - low, c) for e, c in poly.items()))
+
+
+@cache
+def separating_invariants(components: int) -> tuple[tuple[str, Callable[[PlatWord], object]], ...]:
+    """The invariants compared against the two-bridge candidates, cheapest first.
+
+    For a knot: Alexander polynomial, Jones polynomial, signature, then the numbers of
+    homomorphisms onto each group of :data:`plait.scoring.quotients.TARGETS`. For a
+    two-component link the comparison must ignore orientations (Schubert's classification
+    is of unoriented links): the Jones polynomial up to a power of ``t`` (reversing one
+    component multiplies it by a power of ``t``: Morton 1986; Lickorish, An Introduction
+    to Knot Theory, 1997, Prop. 3.7) and homomorphism counts for classes closed under
+    inversion. A function returns None when its value was not computed (a homomorphism
+    search over its budget, :data:`QUOTIENT_BUDGET` letters pushed).
+
+    Returns
+    -------
+    tuple of (name, function)
+    """
+    from plait.scoring.jones import jones
+    from plait.scoring.quotients import TARGETS, count_homomorphisms, target
+    from plait.scoring.signature import signature
+
+    def alex(p: PlatWord) -> object:
+        from plait.scoring.alexander import alexander
+
+        return tuple(sorted(alexander(p).items()))
+
+    def jones_exact(p: PlatWord) -> object:
+        return tuple(sorted(jones(p).items()))
+
+    def jones_shift(p: PlatWord) -> object:
+        return _shift_class(jones(p))
+
+    def homs(name: str) -> Callable[[PlatWord], object]:
+        return lambda p: count_homomorphisms(p, name, QUOTIENT_BUDGET)
+
+    if components == 1:
+        out: list[tuple[str, Callable[[PlatWord], object]]] = [
+            ("Alexander polynomial", alex),
+            ("Jones polynomial", jones_exact),
+            ("signature", signature),
+        ]
+        names = TARGETS
+    else:
+        out = [("Jones polynomial up to a power of t", jones_shift)]
+        names = tuple(n for n in TARGETS if target(n).inverse_closed)
+    out += [(f"number of homomorphisms onto {n}", homs(n)) for n in names]
+    return tuple(out)
+
+
+@lru_cache(maxsize=65536)
+def _candidate_value(components: int, index: int, p: int, q: int) -> object:
+    from plait.scoring.twobridge import two_bridge_plat
+
+    return separating_invariants(components)[index][1](two_bridge_plat(p, q))
+
+
+def _describe(p: int, q: int) -> str:
+    if p == 1:
+        return "the unknot"
+    if p == 0:
+        return "the 2-component unlink"
+    return f"S({p},{q})"
+
+
+@lru_cache(maxsize=4096)
+def _not_two_bridge(plat: PlatWord, det: int) -> tuple[bool, str]:
+    from plait.scoring.twobridge import two_bridge_classes
+
+    comps = plat.components
+    if comps >= 3:
+        return True, f"{comps} components; a 2-bridge link has at most 2"
+    if plat.bridges <= 2:
+        return False, f"the plat itself has {plat.bridges} bridge{'s' * (plat.bridges > 1)}"
+    if comps == 2 and det % 2:
+        return True, f"determinant {det} is odd; a 2-component 2-bridge link S(p,q) has p even"
+    if comps == 1 and det % 2 == 0:
+        return True, f"determinant {det} is even; a 2-bridge knot S(p,q) has p odd"
+    classes = two_bridge_classes(det)
+    invariants = separating_invariants(comps)
+    ours: dict[int, object] = {}
+    used: dict[str, list[str]] = {}
+    for q in classes:
+        ruled = None
+        for i, (name, fn) in enumerate(invariants):
+            if i not in ours:
+                ours[i] = fn(plat)
+            if ours[i] is None:
+                continue  # not computed within budget
+            if _candidate_value(comps, i, det, q) != ours[i]:
+                ruled = name
+                break
+        if ruled is None:
+            tried = [invariants[i][0] for i, v in ours.items() if v is not None]
+            return False, (f"{_describe(det, q)} agrees with it on every invariant computed "
+                           f"({', '.join(tried)}); it may be 2-bridge")
+        used.setdefault(ruled, []).append(_describe(det, q))
+    kind = "knot" if comps == 1 else "2-component link"
+    listing = "; ".join(f"{', '.join(names)} by the {inv}" for inv, names in used.items())
+    return True, (f"every 2-bridge {kind} of determinant {det} is one of {len(classes)} "
+                  f"Schubert normal forms (mirrors included) and each differs: {listing}")
+
+
+def _determinant(plat: PlatWord) -> int:
+    from plait.scoring.alexander import determinant
+
+    return determinant(plat)
+
+
+def not_two_bridge(plat: PlatWord) -> tuple[bool, str]:
+    """Decide whether invariants prove that the plat closure is not a 2-bridge link.
+
+    Schubert (1956) classified 2-bridge links: each is some ``S(p, q)`` and its
+    determinant is ``p``. So a knot or 2-component link with determinant ``p`` and bridge
+    number at most 2 is one of the finitely many candidates ``S(p, q)`` (both mirror
+    images; ``p = 1`` is the unknot, ``p = 0`` the unlink), and it is not 2-bridge as soon
+    as each candidate differs from it in some invariant (see
+    :func:`separating_invariants`).
+
+    Returns
+    -------
+    (proved, explanation)
+        ``proved`` is True when the link is certainly not 2-bridge; the explanation names
+        the invariant that ruled out each candidate, or the candidate that could not be
+        ruled out.
+
+    References
+    ----------
+    .. [1] H. Schubert, "Knoten mit zwei Brücken", Math. Z. 65 (1956).
+    """
+    return _not_two_bridge(plat, _determinant(plat))
+
+
+def _unknot_distinguished(plat: PlatWord) -> str | None:
+    """Name of a computed invariant that differs from the unknot's, or None."""
+    from plait.scoring.alexander import alexander
+    from plait.scoring.jones import jones
+    from plait.scoring.signature import signature
+
+    if _determinant(plat) != 1:
+        return f"determinant {_determinant(plat)} ≠ 1"
+    if alexander(plat) != {0: 1}:
+        return "Alexander polynomial ≠ 1"
+    if jones(plat) != {Fraction(0): 1}:
+        return "Jones polynomial ≠ 1"
+    if signature(plat) != 0:
+        return f"signature {signature(plat)} ≠ 0"
+    return None
+
+
+@lru_cache(maxsize=4096)
+def bridge_lower_bound(plat: PlatWord) -> LowerBound:
+    """A lower bound on the bridge number of the plat closure, with its reasons.
+
+    Bounds, cheapest first (each reason names the theorem and the computed quantity):
+
+    * components: a link with ``c`` components has ``b >= c`` (each component has a
+      maximum); ``b = 1`` exactly when the plat has 1 bridge, since ``b = 1`` only for
+      the unknot (Schubert 1954) and invariants cannot prove a knot trivial;
+    * a knot whose determinant, Alexander or Jones polynomial or signature differs from
+      the unknot's is knotted, so ``b >= 2``;
+    * Fox colorings: the space of Fox ``p``-colorings has dimension at most ``b``
+      (a coloring is determined by the colors of the bridges);
+    * Nakanishi index: ``b >= m + 1``;
+    * not 2-bridge (Schubert 1956 classification, :func:`not_two_bridge`): ``b >= 3``;
+    * meridional rank: a homomorphism onto a group that two conjugates of the meridian's
+      image cannot generate, or onto a symmetric group on ``s`` points with meridians to
+      transpositions (``s - 1`` are needed): ``b >=`` that number (Boileau–Zieschang 1985,
+      Baader–Blair–Kjuchukova 2021).
+
+    Parameters
+    ----------
+    plat : PlatWord
+
+    Returns
+    -------
+    LowerBound
+
+    References
+    ----------
+    .. [1] H. Schubert, "Über eine numerische Knoteninvariante", Math. Z. 61 (1954).
+    .. [2] H. Schubert, "Knoten mit zwei Brücken", Math. Z. 65 (1956).
+    .. [3] R. H. Fox, "A quick trip through knot theory" (1962): Fox colorings.
+    .. [4] Y. Nakanishi, "A note on unknotting number", Math. Sem. Notes Kobe Univ. 9
+       (1981): the Alexander module needs at most ``b - 1`` generators.
+    .. [5] M. Boileau and H. Zieschang, Comment. Math. Helv. 60 (1985).
+    .. [6] S. Baader, R. Blair and A. Kjuchukova, Math. Ann. 379 (2021).
+    """
+    from plait.scoring.alexander import fox_coloring_dimension, nakanishi_lower_bound
+
+    found: list[tuple[int, str, str]] = []  # (bound, method, reason)
+    comps = plat.components
+    if comps > 1:
+        found.append((comps, "components",
+                      f"{comps} components, each with at least one bridge → b ≥ {comps}"))
+    else:
+        found.append((1, "components", "a knot has at least one bridge → b ≥ 1"))
+    if plat.bridges == 1:
+        reason = ("the plat has 1 bridge, so the closure is the unknot and b = 1 "
+                  "(Schubert 1954: b = 1 exactly for the unknot)")
+        return LowerBound(1, (reason,), "plat", True)
+    if comps == 1:
+        why = _unknot_distinguished(plat)
+        if why is None:
+            found.append((1, "unknot", "determinant, Alexander and Jones polynomials and "
+                          "signature agree with the unknot's; invariants cannot prove a knot "
+                          "knotted in general, and b = 1 is claimed only for a 1-bridge plat"))
+        else:
+            found.append((2, "knotted", f"{why}, so the knot is not the unknot → b ≥ 2 "
+                          "(Schubert 1954: b = 1 only for the unknot)"))
+    det = _determinant(plat)
+    primes = sorted({p for p in FOX_PRIMES} | {p for p in _odd_prime_factors(det)})
+    best_fox = None
+    for p in primes:
+        d = fox_coloring_dimension(plat, p)
+        if best_fox is None or d > best_fox[0]:
+            best_fox = (d, p)
+    if best_fox is not None and best_fox[0] >= 2:
+        d, p = best_fox
+        found.append((d, "fox", f"Fox {p}-colorings have dimension {d} → b ≥ {d} "
+                      "(a coloring is fixed by the colors of the bridges; Fox 1962)"))
+    m, why = nakanishi_lower_bound(plat)
+    if m >= 1:
+        found.append((m + 1, "nakanishi",
+                      f"the Alexander module needs at least {m} generator{'s' * (m > 1)} "
+                      f"({why}) → b ≥ {m + 1} (Nakanishi index ≤ b − 1)"))
+    best = max(b for b, _, _ in found)
+    if best < 3 and plat.bridges >= 3:
+        proved, why = _not_two_bridge(plat, det)
+        if proved:
+            found.append((3, "not-2-bridge", f"not 2-bridge: {why} → b ≥ 3 (Schubert 1956)"))
+        else:
+            for name in WITNESS_TARGETS:
+                w = _witness(plat, name)
+                if w is not None:
+                    found.append((w, "meridional-rank", (
+                        f"a homomorphism onto {name} (meridians to {name.split('/')[1]}s) "
+                        f"needs {w} meridian generators → b ≥ {w} "
+                        "(Boileau–Zieschang 1985; Baader–Blair–Kjuchukova 2021)")))
+                    break
+            else:
+                found.append((best, "undecided", f"could not rule out 2 bridges: {why}"))
+    best = max(b for b, _, _ in found)
+    method = next(m for b, m, _ in found if b == best)
+    return LowerBound(best, tuple(r for _, _, r in found), method, best == plat.bridges)
+
+
+def _witness(plat: PlatWord, name: str) -> int | None:
+    from plait.scoring.quotients import meridional_rank_witness
+
+    w = meridional_rank_witness(plat, name, QUOTIENT_BUDGET)
+    return None if w is None else w[0]
+
+
+def _odd_prime_factors(n: int) -> list[int]:
+    n = abs(n)
+    out, p = [], 3
+    while n % 2 == 0 and n:
+        n //= 2
+    while p * p <= n:
+        if n % p == 0:
+            out.append(p)
+            while n % p == 0:
+                n //= p
+        p += 2
+    if n > 1:
+        out.append(n)
+    return out
