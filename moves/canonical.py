@@ -54,6 +54,19 @@ def _find_block(word: list[int], strands: int) -> tuple[str, int, int, list[int]
     return None
 
 
+def _reduce_record(old, new) -> MoveRecord:
+    # replace only the window where the words differ: equal modulo commutation and
+    # cancellation as whole words exactly when the windows are (the group cancels)
+    a = 0
+    m = min(len(old), len(new))
+    while a < m and old[a] == new[a]:
+        a += 1
+    b = 0
+    while b < m - a and old[len(old) - 1 - b] == new[len(new) - 1 - b]:
+        b += 1
+    return MoveRecord("reduce", (a, len(old) - b, *new[a : len(new) - b]))
+
+
 def canonical_word(word, strands: int, record: list[MoveRecord] | None = None) -> list[int]:
     """Canonical letters of a plat word; appends the moves that derive them to ``record``.
 
@@ -65,7 +78,7 @@ def canonical_word(word, strands: int, record: list[MoveRecord] | None = None) -
     """
     w = raag_reduce(word)
     if record is not None and tuple(w) != tuple(word):
-        record.append(MoveRecord("reduce", (0, len(word), *w)))
+        record.append(_reduce_record(tuple(word), w))
     while True:
         changed = False
         front = front_absorbable(w, sequential=True)
@@ -83,6 +96,7 @@ def canonical_word(word, strands: int, record: list[MoveRecord] | None = None) -
             w = [x for p, x in enumerate(w) if p not in drop]
             changed = True
         for side in (TOP, BOTTOM):
+            old = w
             probe = w if side == TOP else w[::-1]
             hit = _find_block(probe, strands)
             if hit is None:
@@ -98,7 +112,7 @@ def canonical_word(word, strands: int, record: list[MoveRecord] | None = None) -
             else:  # reversed, a generator word is the same modulo far commutation
                 moved, w = rest[::-1] + h, rest[::-1]
             if record is not None:
-                record.append(MoveRecord("reduce", (0, len(moved), *moved)))
+                record.append(_reduce_record(old, moved))
                 record.append(MoveRecord(kind, (side, i, -e)))
             changed = True
             break
@@ -106,11 +120,11 @@ def canonical_word(word, strands: int, record: list[MoveRecord] | None = None) -
             break
         w2 = raag_reduce(w)
         if record is not None and w2 != w:
-            record.append(MoveRecord("reduce", (0, len(w), *w2)))
+            record.append(_reduce_record(w, w2))
         w = w2
     out = lex_normal(w)
     if record is not None and out != w:
-        record.append(MoveRecord("reduce", (0, len(w), *out)))
+        record.append(_reduce_record(w, out))
     return out
 
 
