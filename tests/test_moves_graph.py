@@ -160,3 +160,22 @@ def test_scramble_keeps_the_link_and_is_replayable(p, seed):
     same_link(p, q)
     assert replay(p, recs).final == q
     assert scramble(p, seed, length_factor=3, stabilizations=2)[0] == q  # seeded
+
+
+def test_inner_stabilization_at_a_split_position():
+    # two trefoil plats side by side (nothing crosses between pairs 2 and 3): a split link.
+    # A new pair 3 crossing either neighbour once is a kink (Reidemeister 1927, move I).
+    t = (2, 1, -2, 2, 1, -2, 2, 1, -2)
+    p = PlatWord(8, t + tuple(x + 4 if x > 0 else x - 4 for x in t))
+    for g in (4, -4, 6, -6):
+        for pos in (0, 5, p.length):
+            rec = MoveRecord("stab", (3, pos, g))
+            q = replay(p, [rec]).final
+            assert q is not None and q.bridges == 5
+            assert q == apply_move(p, rec)
+            same_link(p, q, str(rec))
+            assert (3, pos) in destab_sites(q.word, q.strands)
+            assert replay(q, [MoveRecord("destab", (3, pos))]).final == p
+    # where letters cross between pairs 2 and 3 the local form does not exist
+    bad = PlatWord(8, (4,))
+    assert not replay(bad, [MoveRecord("stab", (3, 0, 4))]).ok
