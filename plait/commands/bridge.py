@@ -1,0 +1,58 @@
+"""``plait bridge``: bounds on the bridge number of a link, each with its reason."""
+
+from __future__ import annotations
+
+import argparse
+import sys
+
+from plait.cli import add_input_arguments, emit_json, load_input
+
+NAME = "bridge"
+HELP = "estimate the bridge number: certified value or lower and upper bounds"
+ORDER = 35
+
+EXIT_INTERRUPTED = 130
+
+
+def configure(p: argparse.ArgumentParser) -> None:
+    add_input_arguments(p)
+    p.add_argument("--time", type=float, metavar="SECONDS",
+                   help="search time budget in seconds (default 10 when --steps is not given)")
+    p.add_argument("--steps", type=int, metavar="N",
+                   help="search step budget (0: bounds only); reproducible with --seed")
+    p.add_argument("--seed", type=int, default=0, metavar="N", help="random seed (default 0)")
+    p.add_argument("--run-dir", metavar="DIR",
+                   help="run folder (default: a new folder under runs/)")
+    p.add_argument("--json", action="store_true", help="print one JSON object")
+    p.add_argument("--quiet", action="store_true", help="no progress bar")
+
+
+def run(args: argparse.Namespace) -> int:
+    from plait.bridge import bridge_report
+
+    pres = load_input(args)
+    rep = bridge_report(pres, time=args.time, steps=args.steps, seed=args.seed,
+                        run_dir=args.run_dir, quiet=args.quiet or args.json)
+    if args.json:
+        emit_json(rep.to_json())
+    else:
+        if rep.certified:
+            print(f"bridge number = {rep.upper} (certified)")
+        else:
+            print(f"{rep.lower} ≤ bridge number ≤ {rep.upper}")
+        for r in rep.lower_reasons:
+            print(f"lower:  {r}")
+        for r in rep.upper_reasons:
+            print(f"upper:  {r}")
+        p = rep.result
+        print(f"plat:   {p.strands} strands, {p.length} crossings: "
+              f"{p if p.word else '(empty)'}")
+        print(f"certificate: {rep.search.get('certificate', '')}")
+        pd = rep.to_json()["pd"]
+        if pd is not None:
+            print("pd:     [" + ",".join("[" + ",".join(map(str, c)) + "]" for c in pd) + "]")
+    if rep.search.get("status") == "interrupted":
+        sys.stderr.write(f"plait: interrupted; the search can be continued with: plait resume "
+                         f"{rep.search.get('run_dir')}\n")
+        return EXIT_INTERRUPTED
+    return 0
