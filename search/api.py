@@ -35,6 +35,8 @@ CHECKPOINT_EVERY = 3.0
 # Least gap in seconds between two writes of a new best (a burst of improvements is
 # guarded and written once, at most this late; a checkpoint always writes it first).
 BEST_EVERY = 0.5
+# Greedy isolating moves tried on the start plat before the strategy begins.
+INITIAL_SEEK = 40
 
 
 @dataclass
@@ -161,19 +163,23 @@ class _Run:
         return self.elapsed_before + (_time.monotonic() - self.t0)
 
     # -- set up ------------------------------------------------------------------------
-    def fresh(self, lower: int, reasons: list[str]) -> None:
+    def fresh(self, lower: int | None = None, reasons: list[str] | None = None) -> None:
         import random
 
         cfg = self.config
         kinds = tuple(cfg["kinds"]) if cfg.get("kinds") else None
-        self.lower, self.reasons = lower, reasons
-        ctx = SearchContext(self.start, self.objective, random.Random(cfg["seed"]), lower,
-                            kinds)
+        ctx = SearchContext(self.start, self.objective, random.Random(cfg["seed"]), 1, kinds)
         self.ctx = ctx
         ctx.on_best = self._on_best
+        # first the cheap part: canonical form and a greedy hunt for stabilizations
         plat, node = ctx.canonical(self.start, 0)
-        plat, node = ctx.destabilize(plat, node)
+        plat, node = ctx.destabilize(plat, node, seek=INITIAL_SEEK)
         ctx.offer(plat, node)
+        # the certified bound is an invariant of the link: compute it on the shorter plat
+        if lower is None:
+            lower, reasons = _lower_bound(ctx.best)
+        self.lower, self.reasons = lower, reasons
+        ctx.lower_bound = max(1, lower)
         self.strategy = make_strategy(cfg["strategy"], ctx, cfg.get("params"), self.budget,
                                       self.elapsed)
         self.folder.log("start", strategy=cfg["strategy"], seed=cfg["seed"],
@@ -526,14 +532,13 @@ def reduce(presentation, *, strategy: str = "auto", time: float | None = None,
         "checkpoint_every": float(checkpoint_every),
     }
     input_obj = presentation_to_obj(pres)
-    lower, reasons = _lower_bound(start)
     run = _Run(folder, config, start, input_obj, quiet, handle_signals)
     folder.write("config.json", config)
     folder.write("input.json", {
         "presentation": input_obj, "plat": _plat_obj(start),
         "fingerprint_cheap": _fp_json(run.fp_cheap),
     })
-    run.fresh(lower, reasons)
+    run.fresh()
     return run.run()
 
 
