@@ -2,8 +2,8 @@
 
 Usage::
 
-    .venv/bin/python bench/batch.py [--items 1000] [--steps 200] [--workers 1,2]
-                                    [--bridges 2-4] [--length 10-30] [--seed 1]
+    .venv/bin/python bench/batch.py [--items 1000] [--steps 100] [--workers 1,2]
+                                    [--bridges 2-3] [--length 8-20] [--seed 1]
 
 Prints one table: workers, items, wall time, items per hour and the speed-up over the
 first worker count. Every configuration runs the same items with the same seeds and step
@@ -26,10 +26,10 @@ from plait.search.randomplat import parse_range, random_plats
 def main(argv: list[str] | None = None) -> int:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--items", type=int, default=1000)
-    ap.add_argument("--steps", type=int, default=200, help="step budget per item")
+    ap.add_argument("--steps", type=int, default=100, help="step budget per item")
     ap.add_argument("--workers", default="1,2", help="comma-separated worker counts")
-    ap.add_argument("--bridges", default="2-4")
-    ap.add_argument("--length", default="10-30")
+    ap.add_argument("--bridges", default="2-3")
+    ap.add_argument("--length", default="8-20")
     ap.add_argument("--seed", type=int, default=1)
     ap.add_argument("--strategy", default=None)
     args = ap.parse_args(argv)

@@ -7,6 +7,6 @@ cd "$(dirname "$0")/.."
 bash scripts/setup.sh
 OUT=runs/demo-survey-small
 rm -rf "$OUT"   # the demo's own output folder from an earlier demo run
-.venv/bin/plait batch examples/survey-small.jsonl --out "$OUT" --steps 300 --seed 1
+.venv/bin/plait batch examples/survey-small.jsonl --out "$OUT" --steps 500 --seed 1
 echo
 echo "rows: $OUT/results.jsonl and $OUT/results.csv; summary: $OUT/summary.json"
