@@ -312,7 +312,9 @@ def bridge_lower_bound(plat: PlatWord) -> LowerBound:
                 found.append((best, "undecided", f"could not rule out 2 bridges: {why}"))
     best = max(b for b, _, _ in found)
     method = next(m for b, m, _ in found if b == best)
-    return LowerBound(best, tuple(r for _, _, r in found), method, best == plat.bridges)
+    # the baseline, then every reason that reaches the bound (weaker ones are implied)
+    reasons = [found[0][2]] + [r for b, _, r in found[1:] if b == best]
+    return LowerBound(best, tuple(reasons), method, best == plat.bridges)
 
 
 def _witness(plat: PlatWord, name: str) -> int | None:

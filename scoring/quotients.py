@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Iterator, Sequence
 from dataclasses import dataclass, field
 from functools import cache, lru_cache
-from itertools import permutations
+from itertools import permutations, product
 
 from plait.pd import trace_plat
 from plait.word import PlatWord
@@ -18,6 +18,7 @@ __all__ = [
     "symmetric_group",
     "alternating_group",
     "hyperoctahedral_group",
+    "general_linear_group_3_2",
     "conjugacy_class",
     "generated_subgroup",
     "Arcs",
@@ -164,8 +165,31 @@ def _cycle_perm(m: int, *cycles: Sequence[int]) -> Perm:
     return tuple(p)
 
 
+def general_linear_group_3_2() -> tuple[Perm, ...]:
+    """GL(3, 2) (isomorphic to PSL(2, 7), order 168) acting on the 7 nonzero vectors of
+    F_2^3, numbered by their binary value minus one."""
+    out = []
+    for cols in product(range(1, 8), repeat=3):
+        # column c is the image of basis vector e_c (bit c); v maps to xor of its columns
+        img = []
+        for v in range(1, 8):
+            w = 0
+            for c in range(3):
+                if v >> c & 1:
+                    w ^= cols[c]
+            img.append(w)
+        if 0 not in img:
+            out.append(tuple(w - 1 for w in img))
+    return tuple(sorted(out))
+
+
 def _make_target(name: str) -> Target:
     group_name, cls = name.split("/")
+    if group_name == "GL3(2)":
+        group = general_linear_group_3_2()
+        order = int(cls.split("-")[1])
+        rep = min(g for g in group if _order(g) == order)
+        return Target(name, group, conjugacy_class(group, rep))
     kind, m = group_name[0], int(group_name[1:])
     group = {"S": symmetric_group, "A": alternating_group, "B": hyperoctahedral_group}[kind](m)
     if kind == "B":
@@ -188,7 +212,8 @@ def _make_target(name: str) -> Target:
 
 
 #: The targets used by the bridge report, cheapest first. ``S_m/transposition`` and the
-#: two reflection classes of ``B_m`` are Coxeter groups with their reflections.
+#: two reflection classes of ``B_m`` are Coxeter groups with their reflections;
+#: ``GL3(2)/order-k`` is a class of elements of order ``k`` in GL(3, 2) = PSL(2, 7).
 TARGETS: tuple[str, ...] = (
     "S4/transposition",
     "S5/transposition",
@@ -199,6 +224,9 @@ TARGETS: tuple[str, ...] = (
     "A5/3-cycle",
     "A5/5-cycle",
     "A5/5-cycle'",
+    "GL3(2)/order-3",
+    "GL3(2)/order-4",
+    "GL3(2)/order-7",
     "S5/4-cycle",
     "S5/double-transposition",
     "S6/transposition",
