@@ -156,10 +156,12 @@ def search_item(task: ItemTask) -> dict:
     pres = presentation_from_obj(task.presentation)
     run_dir = Path(task.run_dir)
     if task.bridge:
-        report = _bridge_function()
-        res = report(pres, time=task.time, steps=task.steps, seed=task.seed,
-                     run_dir=run_dir, quiet=True)
-        return res.to_json() if hasattr(res, "to_json") else dict(res)
+        # the report's diagram steps keep no checkpoint: an interrupted item starts again
+        if _resumable(run_dir):
+            _clear_folder(run_dir)
+        res = _bridge_function()(pres, time=task.time, steps=task.steps, seed=task.seed,
+                                 run_dir=run_dir, quiet=True, handle_signals=False)
+        return res.to_json()
     if _resumable(run_dir):
         try:
             return resume(run_dir, quiet=True, handle_signals=False).to_json()
@@ -173,13 +175,10 @@ def search_item(task: ItemTask) -> dict:
 
 def _bridge_function() -> Callable:
     try:
-        from plait.bridge import bridge_report  # type: ignore[attr-defined]
+        from plait.bridge import bridge_report
     except ImportError:
-        try:
-            from plait.search import bridge_report  # type: ignore[attr-defined]
-        except ImportError:
-            raise InputError("--bridge needs the bridge report (plait.bridge), "
-                             "which this installation lacks") from None
+        raise InputError("--bridge needs the bridge report (plait.bridge), "
+                         "which this installation lacks") from None
     return bridge_report
 
 

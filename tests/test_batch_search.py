@@ -123,3 +123,24 @@ def test_batch_command_reports_bad_options(tmp_path, capsys):
     err = capsys.readouterr().err
     assert "--shard" in err and "not found" in err and "no batch to resume" in err
     assert not (tmp_path / "o").exists() and not (tmp_path / "never").exists()
+
+
+def test_bridge_batch_on_knotinfo_diagrams(tmp_path):
+    import kidata
+
+    names = ["4_1", "8_19"]
+    src = tmp_path / "ki.jsonl"
+    src.write_text("".join(json.dumps({"id": n, "pd": kidata.knot(n).pd}) + "\n"
+                           for n in names))
+    out = tmp_path / "bridge"
+    assert main(["batch", str(src), "--out", str(out), "--steps", "50", "--bridge",
+                 "--workers", "2", "--quiet"]) == 0
+    rows = _rows(out)
+    assert sorted(rows) == sorted(names)
+    for n in names:
+        r = rows[n]
+        assert r["error"] is None
+        # source: KnotInfo via database-knotinfo (bridge_index)
+        assert r["bridge_bounds"]["upper"] == kidata.knot(n).bridge_index
+        assert r["result"]["bridges"] == r["bridge_bounds"]["upper"]
+        assert r["wirtinger"]["number"] >= r["bridge_bounds"]["lower"]
