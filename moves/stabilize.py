@@ -16,6 +16,7 @@ __all__ = [
     "destab_sites",
     "destabilize_all",
     "isolating_moves",
+    "seek_destabilization",
 ]
 
 
@@ -109,14 +110,19 @@ def destab_sites(word: Sequence[int], strands: int) -> list[tuple[int, int]]:
     return out
 
 
-def destabilize_all(plat: PlatWord, seek: int = 0) -> tuple[PlatWord, list[MoveRecord]]:
+def destabilize_all(
+    plat: PlatWord, seek: int = 0, lookahead: int = 0, budget: int = 3000
+) -> tuple[PlatWord, list[MoveRecord]]:
     """Canonicalize and destabilize until no stabilization pattern is left.
 
     Each round puts the word in canonical form (free reduction, end absorption, far
     commutation normal form; recorded as moves) and removes the first pair found by
     :func:`destab_sites`. With ``seek > 0``, up to that many greedy steps of
     :func:`isolating_moves` are also taken when no pattern is present, each strictly
-    lowering (fewest letters touching a pair, length).
+    lowering (fewest letters touching a pair, length). With ``lookahead > 0``, when no
+    greedy step helps, :func:`seek_destabilization` searches that many moves deep (at
+    most ``budget`` words) for a word with a stabilization pattern; this counts as one
+    of the ``seek`` steps.
 
     Returns
     -------
@@ -128,7 +134,7 @@ def destabilize_all(plat: PlatWord, seek: int = 0) -> tuple[PlatWord, list[MoveR
     records: list[MoveRecord] = []
     cur, rec = canonical_with_moves(plat)
     records += rec
-    budget = seek
+    steps_left = seek
     while True:
         sites = destab_sites(cur.word, cur.strands)
         if sites:
@@ -138,12 +144,16 @@ def destabilize_all(plat: PlatWord, seek: int = 0) -> tuple[PlatWord, list[MoveR
             cur, rec = canonical_with_moves(cur)
             records += rec
             continue
-        if budget <= 0:
+        if steps_left <= 0:
             break
         best = next(iter(isolating_moves(cur)), None)
+        if best is None and lookahead > 0:
+            found = seek_destabilization(cur, lookahead, budget=budget)
+            if found is not None:
+                best = (found[0], found[1], None)
         if best is None:
             break
-        budget -= 1
+        steps_left -= 1
         recs, cur, _key = best
         records += recs
     return cur, records
@@ -195,3 +205,81 @@ def isolating_moves(
     found.sort(key=lambda t: (t[0], t[1]))
     for key, _, recs, can in found:
         yield recs, can, key
+
+
+def seek_destabilization(
+    plat: PlatWord,
+    depth: int = 3,
+    slack: int = 6,
+    budget: int = 3000,
+    kinds: frozenset[str] | None = None,
+) -> tuple[list[MoveRecord], PlatWord] | None:
+    """Breadth-first search for a nearby word with a stabilization pattern.
+
+    Greedy isolation can stall: a destabilization is often reached only through words
+    that are longer and no more isolated (for the figure-eight knot's 3-bridge plat
+    ``2 4 -3 2 -3 -4``, a pair-threading factor, a handle reduction and a braid relation
+    lead to the kink ``-2 -2 4 3 -2``). Words are compared in canonical form; the
+    search explores at most ``depth`` moves of the given kinds (default: pairing-subgroup
+    factors, braid relations, handle reductions), words at most ``slack`` letters longer
+    than ``plat``, and at most ``budget`` distinct words.
+
+    Returns
+    -------
+    (list of MoveRecord, PlatWord) or None
+        The moves (each followed by its canonicalization records) to a canonical word
+        where :func:`destab_sites` finds a pair, or None.
+    """
+    from plait.moves.canonical import canonical, canonical_with_moves
+    from plait.moves.graph import apply_move, neighbor_deltas
+    from plait.moves.records import PAIRING_KINDS
+
+    if kinds is None:
+        kinds = PAIRING_KINDS | {"braid", "handle"}
+    if plat.strands < 4:
+        return None
+    start = canonical(plat)
+    # parent[word] = (parent word, move) along the first path that reached the word
+    parent: dict[tuple[int, ...], tuple[tuple[int, ...], MoveRecord] | None] = {
+        start.word: None
+    }
+    frontier = [start]
+    cap = plat.length + slack
+    goal = None
+    for _ in range(depth):
+        nxt = []
+        for p in frontier:
+            for rec, L in neighbor_deltas(p, kinds):
+                if L > cap + 4:  # canonicalization shortens by at most what it absorbs
+                    continue
+                c = canonical(apply_move(p, rec))
+                if c.word in parent or c.length > cap:
+                    continue
+                parent[c.word] = (p.word, rec)
+                if destab_sites(c.word, c.strands):
+                    goal = c
+                    break
+                nxt.append(c)
+                if len(parent) >= budget:
+                    break
+            if goal is not None or len(parent) >= budget:
+                break
+        if goal is not None or len(parent) >= budget:
+            break
+        frontier = nxt
+    if goal is None:
+        return None
+    path = []
+    w = goal.word
+    while parent[w] is not None:
+        pw, rec = parent[w]
+        path.append((pw, rec))
+        w = pw
+    records: list[MoveRecord] = []
+    first, crec = canonical_with_moves(plat)
+    records += crec
+    cur = first
+    for _pw, rec in reversed(path):
+        cur, crec = canonical_with_moves(apply_move(cur, rec))
+        records += [rec, *crec]
+    return records, cur
