@@ -1,0 +1,301 @@
+"""Bridge lower bounds, signature and meridional quotients, against KnotInfo and theorems."""
+
+from __future__ import annotations
+
+from functools import cache
+
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+from kidata import knot, knots
+from plait.scoring import alexander, fox_coloring_dimension, jones
+from plait.scoring.bounds import LowerBound, bridge_lower_bound, not_two_bridge
+from plait.scoring.quotients import (
+    TARGETS,
+    count_homomorphisms,
+    meridional_rank_witness,
+    target,
+)
+from plait.scoring.signature import goeritz_matrix, signature, symmetric_inertia
+
+from plait.word import ClosedBraid, PlatWord
+
+
+def _plat(name: str) -> PlatWord:
+    return ClosedBraid.from_word(knot(name).braid).to_plat()
+
+
+@cache
+def _knotinfo_signature() -> dict[str, int]:
+    # source: KnotInfo via database-knotinfo (field signature; KnotInfo's convention: the
+    # positive trefoil, closure of the braid 1 1 1, has signature -2)
+    from database_knotinfo import link_list
+
+    out = {}
+    for row in link_list():
+        try:
+            out[row["name"]] = int(row["signature"])
+        except (TypeError, ValueError):
+            pass
+    return out
+
+
+# -- signature -------------------------------------------------------------------------
+
+
+def test_signature_matches_knotinfo():
+    # source: KnotInfo via database-knotinfo: all 249 knots of 3 to 10 crossings, plats
+    # from KnotInfo's braid notation (same chirality as the table)
+    sig = _knotinfo_signature()
+    rows = knots(10)
+    assert len(rows) == 249
+    wrong = [r.name for r in rows
+             if signature(ClosedBraid.from_word(r.braid).to_plat()) != sig[r.name]]
+    assert wrong == []
+
+
+def test_signature_of_torus_knots_and_hopf_link():
+    # from memory / Murasugi 1965: sigma(T(2,q)) = -(q-1) for the positive torus knot in
+    # KnotInfo's convention; the positive Hopf link has signature -1 (common practice)
+    for q in (3, 5, 7, 9):
+        assert signature(ClosedBraid.from_word([1] * q).to_plat()) == -(q - 1)
+    assert signature(ClosedBraid.from_word([1, 1]).to_plat()) == -1
+
+
+@settings(max_examples=30, deadline=None)
+@given(st.sampled_from([r.name for r in knots(8)]))
+def test_signature_of_mirror_is_negated(name):
+    # Gordon-Litherland 1978 / common practice: sigma(mirror K) = -sigma(K)
+    p = _plat(name)
+    assert signature(p.mirror()) == -signature(p)
+
+
+@given(st.lists(st.lists(st.integers(-3, 3), min_size=4, max_size=4), min_size=4,
+                max_size=4))
+def test_inertia_law(rows):
+    # Sylvester 1852: inertia of M and of P M P^T agree for invertible P; here M = A + A^T
+    # and P is an elementary matrix (add row 0 to row 1)
+    m = [[rows[i][j] + rows[j][i] for j in range(4)] for i in range(4)]
+    p = [[1 if i == j else 0 for j in range(4)] for i in range(4)]
+    p[1][0] = 1
+    pm = [[sum(p[i][k] * m[k][j] for k in range(4)) for j in range(4)] for i in range(4)]
+    pmp = [[sum(pm[i][k] * p[j][k] for k in range(4)) for j in range(4)] for i in range(4)]
+    assert symmetric_inertia(m) == symmetric_inertia(pmp)
+    pos, neg, zero = symmetric_inertia(m)
+    assert pos + neg + zero == 4
+
+
+def test_goeritz_determinant_is_knot_determinant():
+    # Goeritz 1933 / common practice: |det G| is the determinant of the knot
+    # (source of the determinants: KnotInfo via database-knotinfo)
+    from fractions import Fraction
+
+    def det(m):
+        a = [[Fraction(x) for x in row] for row in m]
+        n, d = len(a), Fraction(1)
+        for i in range(n):
+            piv = next((r for r in range(i, n) if a[r][i]), None)
+            if piv is None:
+                return 0
+            if piv != i:
+                a[i], a[piv] = a[piv], a[i]
+                d = -d
+            d *= a[i][i]
+            for r in range(i + 1, n):
+                f = a[r][i] / a[i][i]
+                for c in range(i, n):
+                    a[r][c] -= f * a[i][c]
+        return d
+
+    for r in knots(8):
+        g = goeritz_matrix(ClosedBraid.from_word(r.braid).to_plat())
+        assert abs(det(g)) == r.determinant, r.name
+
+
+# -- meridional quotients ------------------------------------------------------------------
+
+
+def test_s3_quotients_are_fox_colorings():
+    # Fox 1962: homomorphisms onto S_3 = D_3 with meridians to transpositions are the Fox
+    # 3-colorings, 3^dim of them (trivial colorings included)
+    for r in knots(9):
+        p = ClosedBraid.from_word(r.braid).to_plat()
+        assert count_homomorphisms(p, "S3/transposition") == 3 ** fox_coloring_dimension(p, 3)
+
+
+def test_trefoil_quotient_counts():
+    # from memory, by hand: the trefoil has 6 nontrivial 3-colorings; homomorphisms onto
+    # S_4 with transpositions = 6 trivial + 4 choices of 3 points x 6 = 30; onto S_5:
+    # 10 + 10 x 6 = 70
+    p = _plat("3_1")
+    assert count_homomorphisms(p, "S4/transposition") == 30
+    assert count_homomorphisms(p, "S5/transposition") == 70
+
+
+def _braid_variants(word):
+    # a cyclic rotation (conjugation) and a Markov stabilization: the same closed braid
+    # link (Markov 1935)
+    m = max(abs(g) for g in word) + 1
+    rotated = list(word[1:]) + [word[0]]
+    return ClosedBraid.from_word(rotated + [m]).to_plat()
+
+
+# Hilden 1975 (field notes): local generators of the pairing subgroup; multiplying the
+# word by one on either side does not change the plat closure
+def _pairing_generators(n2: int) -> list[tuple[int, ...]]:
+    out = []
+    for i in range(1, n2 // 2 + 1):
+        out.append((2 * i - 1,))
+        if 2 * i + 1 < n2:
+            out.append((2 * i, 2 * i - 1, 2 * i + 1, 2 * i))
+            out.append((2 * i, 2 * i - 1, 2 * i - 1, 2 * i))
+            out.append((2 * i, 2 * i + 1, 2 * i + 1, 2 * i))
+    return out
+
+
+@settings(max_examples=25, deadline=None)
+@given(st.sampled_from([r.name for r in knots(9)]), st.data())
+def test_quotients_and_signature_are_invariant(name, data):
+    # law: link invariants do not change under the pairing subgroup (Hilden 1975) nor
+    # under conjugation and Markov stabilization of the closed braid (Markov 1935)
+    p = _plat(name)
+    gens = _pairing_generators(p.strands)
+    left = data.draw(st.sampled_from(gens))
+    right = data.draw(st.sampled_from(gens))
+    sign = data.draw(st.sampled_from([1, -1]))
+    q = p.with_word(tuple(sign * g for g in left) + p.word + right)
+    r = _braid_variants(knot(name).braid)
+    names = ["S4/transposition", "A4/3-cycle", "A5/3-cycle", "S5/4-cycle", "GL3(2)/order-7"]
+    for other in (q, r):
+        assert signature(other) == signature(p)
+        for t in names:
+            assert count_homomorphisms(other, t) == count_homomorphisms(p, t), t
+
+
+def test_targets_are_conjugacy_classes():
+    # common practice: group orders and class sizes (S_4: 24, 6 transpositions; A_5: 60,
+    # 20 3-cycles, two classes of 12 5-cycles; B_3: 48 with 3 + 6 reflections; GL(3,2):
+    # 168 with 56 elements of order 3, 42 of order 4, two classes of 24 of order 7)
+    sizes = {"S4/transposition": (24, 6), "A5/3-cycle": (60, 20), "A5/5-cycle": (60, 12),
+             "B3/short": (48, 3), "B3/long": (48, 6), "GL3(2)/order-3": (168, 56),
+             "GL3(2)/order-4": (168, 42), "GL3(2)/order-7": (168, 24)}
+    for name, (g, c) in sizes.items():
+        t = target(name)
+        assert (len(t.group), len(t.klass)) == (g, c), name
+    assert all(target(n).klass for n in TARGETS)
+
+
+# -- the lower-bound report -----------------------------------------------------------
+
+
+@cache
+def _bounds_to_10() -> dict[str, tuple[int | None, LowerBound]]:
+    return {r.name: (r.bridge_index, bridge_lower_bound(ClosedBraid.from_word(r.braid).to_plat()))
+            for r in knots(10)}
+
+
+def test_bridge_three_proved_up_to_ten_crossings():
+    # source: KnotInfo via database-knotinfo (bridge_index): every knot of bridge index 3
+    # up to 10 crossings gets b >= 3 (154 knots); none is left
+    res = _bounds_to_10()
+    three = [n for n, (b, _) in res.items() if b == 3]
+    assert len(three) == 154
+    left = [n for n in three if res[n][1].value < 3]
+    assert left == []
+
+
+def test_bound_never_exceeds_bridge_index():
+    # source: KnotInfo via database-knotinfo: the bound is a theorem, so it never exceeds
+    # the table's bridge index; in particular b >= 3 is never claimed for the 95 2-bridge
+    # knots, and for those the bound is exactly 2 (they are knotted)
+    res = _bounds_to_10()
+    assert [n for n, (b, lb) in res.items() if lb.value > b] == []
+    two = [lb.value for b, lb in res.values() if b == 2]
+    assert len(two) == 95 and set(two) == {2}
+
+
+def test_methods_are_reported():
+    # each report names the method that proved its value and gives reasons as strings
+    res = _bounds_to_10()
+    methods = {lb.method for _, lb in res.values()}
+    assert {"fox", "not-2-bridge"} <= methods
+    for _, lb in res.values():
+        assert lb.reasons and all(isinstance(s, str) and s for s in lb.reasons)
+        assert any(f"b ≥ {lb.value}" in s for s in lb.reasons)
+
+
+@pytest.mark.parametrize("name,twin", [("10_132", "5_1"), ("10_56", "10_25"),
+                                       ("10_129", "8_8")])
+def test_jones_and_alexander_are_not_enough(name, twin):
+    # source: KnotInfo via database-knotinfo: each pair shares Jones and Alexander
+    # polynomials (up to mirror and units), the first has bridge index 3, the second is
+    # 2-bridge; the proof of b >= 3 must use another invariant
+    a, b = knot(name), knot(twin)
+    assert a.bridge_index == 3 and b.bridge_index == 2
+    pa, pb = _plat(name), _plat(twin)
+    ja, jb = jones(pa), jones(pb)
+    assert ja in (jb, {-e: c for e, c in jb.items()})
+    assert alexander(pa) == alexander(pb)
+    proved, why = not_two_bridge(pa)
+    assert proved, why
+    twin_word = "S(" + str(b.determinant)
+    assert twin_word in why
+    assert not not_two_bridge(pb)[0]
+
+
+def test_knot_with_determinant_one():
+    # Schubert 1954: b(T(3,5)) = 3; KnotInfo 10_124 = T(3,5) has determinant 1, so the
+    # only 2-bridge candidate is the unknot, ruled out by the Jones polynomial
+    # (source: KnotInfo via database-knotinfo)
+    row = knot("10_124")
+    assert row.determinant == 1
+    lb = bridge_lower_bound(_plat("10_124"))
+    assert lb.value == 3 and lb.method == "not-2-bridge"
+    assert "unknot" in " ".join(lb.reasons)
+
+
+def test_connected_sums():
+    # Schubert 1954: b(K1 # K2) = b(K1) + b(K2) - 1, so 3_1 # 3_1 and 3_1 # 4_1 have
+    # b = 3. The braid of a connected sum: the second braid shifted to share the last
+    # strand of the first (common practice)
+    granny = ClosedBraid.from_word([1, 1, 1, 2, 2, 2]).to_plat()
+    assert bridge_lower_bound(granny).value == 3
+    with_eight = ClosedBraid.from_word([1, 1, 1, 2, -3, 2, -3]).to_plat()
+    assert bridge_lower_bound(with_eight).value == 3
+    # det 15: H_1 of the double branched cover is cyclic, so Fox colorings give only
+    # b >= 2; the classification of 2-bridge knots proves b >= 3 on its own
+    assert max(fox_coloring_dimension(with_eight, p) for p in (3, 5)) == 2
+    assert not_two_bridge(with_eight)[0]
+
+
+def test_unknot_and_links():
+    # Schubert 1954: b = 1 only for the unknot; a 1-bridge plat is the unknot
+    lb = bridge_lower_bound(PlatWord(2, ()))
+    assert lb.value == 1 and lb.exact
+    # an unknot drawn with 2 bridges: invariants cannot prove it knotted, the bound stays 1
+    lb = bridge_lower_bound(PlatWord(4, (2,)))
+    assert lb.value == 1 and not lb.exact
+    assert "cannot prove" in " ".join(lb.reasons)
+    # common practice: a link of c components has b >= c; the Hopf link has b = 2
+    hopf = ClosedBraid.from_word([1, 1]).to_plat()
+    assert bridge_lower_bound(hopf).value == 2
+    three = ClosedBraid.from_word([1, 1, 2, 2]).to_plat()  # a 3-component chain
+    assert three.components == 3
+    assert bridge_lower_bound(three).value >= 3
+
+
+def test_meridional_rank_witness_is_sound():
+    # Boileau-Zieschang 1985: a witness proves b >= 3, so none may exist for the 2-bridge
+    # knots (source of the bridge indices: KnotInfo via database-knotinfo); and the
+    # S_4 witness exists for a knot with a transitive transposition image on 4 points
+    found = 0
+    for r in knots(9):
+        p = ClosedBraid.from_word(r.braid).to_plat()
+        for name in ("S4/transposition", "B3/short", "A4/3-cycle"):
+            w = meridional_rank_witness(p, name, 200_000)
+            if r.bridge_index == 2:
+                assert w is None, (r.name, name)
+            elif w is not None:
+                assert w[0] <= r.bridge_index
+                found += 1
+    assert found > 0
