@@ -105,9 +105,9 @@ def summary_rows(rows: Iterable[object]) -> tuple[list[tuple[int, int, int, int,
 def _ticks(lo: float, hi: float, *, integer: bool = False, target: int = 5) -> list[float]:
     # "Nice" tick values (1, 2, 5 times a power of ten) covering [lo, hi].
     span = hi - lo
-    if span <= 0:
-        return [lo]
     raw = span / target
+    if not (math.isfinite(span) and raw > 0):
+        return [lo] if span <= 0 else [lo, hi]
     mag = 10 ** math.floor(math.log10(raw))
     step = mag
     for m in (1, 2, 5, 10):
@@ -118,17 +118,17 @@ def _ticks(lo: float, hi: float, *, integer: bool = False, target: int = 5) -> l
         step = max(1.0, round(step))
     first = math.ceil(lo / step - 1e-9) * step
     out = []
-    v = first
-    while v <= hi + 1e-9 * max(1.0, abs(hi)):
-        out.append(round(v, 10))
-        v += step
-    return out
+    for i in range(4 * target + 2):  # bounded: span / step <= target
+        v = first + i * step
+        if v > hi + step * 1e-9:
+            break
+        out.append(float(f"{v:.12g}"))  # drop float noise such as 0.30000000000000004
+    return out or [lo]
 
 
 def _fmt(v: float) -> str:
-    if abs(v - round(v)) < 1e-9:
-        return str(int(round(v)))
-    return f"{v:.3g}"
+    v = float(f"{v:.10g}")
+    return str(int(v)) if v.is_integer() and abs(v) < 1e15 else f"{v:.3g}"
 
 
 def _text(x: float, y: float, s: str, *, size: float = 10, anchor: str = "middle",

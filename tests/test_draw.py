@@ -468,3 +468,42 @@ def test_batch_folder_via_cli_with_torn_line(tmp_path, capsys):
     code, text, _ = run(["draw", str(folder), "--out", str(out)], capsys)
     assert code == 0 and "4 items plotted, 1 with errors skipped, 1 unreadable" in text
     assert ET.fromstring(out.read_text()).get("data-unreadable") == "1"
+
+
+record = st.fixed_dictionaries({"bridges": st.integers(1, 6), "length": st.integers(0, 300)})
+
+
+@settings(max_examples=25, deadline=None)
+@given(st.lists(st.one_of(
+    st.fixed_dictionaries({"input": record, "result": record,
+                           "elapsed": st.floats(0, 1e4), "error": st.none()}),
+    st.fixed_dictionaries({"error": st.text(min_size=1, max_size=5)}),
+    st.fixed_dictionaries({"input": record, "error": st.none()})), max_size=30))
+def test_batch_summary_accounts_for_every_row(rows):
+    # Law: every row is either plotted once in each panel or counted as skipped.
+    root = ET.fromstring(batch_summary_svg_text(rows))
+    plotted, skipped = int(root.get("data-items")), int(root.get("data-skipped"))
+    assert plotted + skipped == len(rows)
+    assert plotted == sum(1 for r in rows if "result" in r)
+    for g in root.iter(NS + "g"):
+        if g.get("data-panel") in ("bridges", "length"):
+            assert sum(int(p.get("data-count")) for p in classes(g, "point")) == plotted
+        if g.get("data-panel") == "time":
+            assert sum(int(b.get("data-count")) for b in classes(g, "bar")) == plotted
+
+
+def batch_summary_svg_text(rows):
+    from plait.batchplot import batch_summary
+
+    return batch_summary(rows).to_svg()
+
+
+@pytest.mark.parametrize("times", [[0.0], [5e-324], [1e-300, 2e-300], [5e-324, 1.0],
+                                   [0.0, 1e4], []])
+def test_batch_summary_odd_times(times):
+    # Degenerate time ranges (all zero, subnormal, tiny spans) still give a histogram.
+    rows = [{"input": {"bridges": 2, "length": 5}, "result": {"bridges": 2, "length": 4},
+             "elapsed": t, "error": None} for t in times]
+    root = ET.fromstring(batch_summary_svg_text(rows))
+    bars = [e for e in root.iter() if e.get("class") == "bar"]
+    assert sum(int(b.get("data-count")) for b in bars) == len(times)
