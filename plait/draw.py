@@ -28,6 +28,7 @@ __all__ = [
     "bezier_point",
     "split_bezier",
     "CONVENTION",
+    "MAX_DRAW_LETTERS",
     "RunFolder",
     "read_run_folder",
 ]
@@ -41,6 +42,9 @@ CONVENTION = (
     "Letter -k is the other way round: the strand from k to k+1 is unbroken and the strand "
     "from k+1 to k is broken."
 )
+
+#: Longest word drawn (about 25 MB of SVG); longer words are refused with InputError.
+MAX_DRAW_LETTERS = 20_000
 
 # Okabe & Ito's colour-blind safe palette (yellow dropped: too pale on white), then black.
 PALETTE = ("#0072B2", "#D55E00", "#009E73", "#CC79A7", "#E69F00", "#56B4E9", "#000000")
@@ -295,6 +299,9 @@ def _columns(length: int, max_rows: int) -> list[tuple[int, int]]:
 def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtitle: str | None,
            positions: bool, letters: bool, arrows: bool) -> tuple[Node, float, float]:
     """One plat as a group of columns; returns the group, its width and its height."""
+    if plat.length > MAX_DRAW_LETTERS:
+        raise InputError(f"draw: {plat.length} letters is over the limit of {MAX_DRAW_LETTERS} "
+                         f"for a picture")
     n2, word = plat.strands, plat.word
     comp = _strand_components(plat)
     _check_components(plat, comp)

@@ -344,6 +344,7 @@ def test_cli_draw_braid(tmp_path, capsys):
     ["draw", "--plat", "1 2", "--out", "x.svg", "--rows", "0"],
     ["draw", "--plat", "1 2", "--out", "x.svg", "--before-after"],
     ["draw", "--out", "x.svg"],
+    ["draw", "--plat", " ".join(["1"] * 20_001), "--out", "x.svg"],
 ])
 def test_cli_draw_bad_input(argv, capsys, tmp_path, monkeypatch):
     monkeypatch.chdir(tmp_path)
