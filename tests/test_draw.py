@@ -19,7 +19,7 @@ from plait.draw import (
     read_run_folder,
     split_bezier,
 )
-from plait.pd import trace_plat
+from plait.pd import plat_to_pd, trace_plat
 from plait.word import ClosedBraid, PlatWord
 
 NS = "{http://www.w3.org/2000/svg}"
@@ -194,6 +194,22 @@ def check_trace(panel: ET.Element, plat: PlatWord) -> None:
     assert len({next(iter(s)) for s in color_of.values()}) == len(color_of)
 
 
+def check_against_pd(panel: ET.Element, plat: PlatWord) -> None:
+    """The broken strand of every letter is the under-strand of that crossing in the PD
+    code plait exports (plait.pd.plat_to_pd, whose Jones polynomials match KnotInfo's)."""
+    pd = plat_to_pd(plat)
+    groups = [g for g in panel.iter(NS + "g") if g.get("class") == "crossing"]
+    label = 1
+    for path in trace_plat(plat):
+        for i, (j, direction, p, q) in enumerate(path):
+            lab_in = label + i
+            top = p if direction == 1 else q
+            piece = {e.get("class") for e in groups[j] if e.get("data-from") == str(top)}
+            # slot 0 of a PD crossing is the incoming under-strand
+            assert piece == ({"under"} if pd.crossings[j][0] == lab_in else {"over"})
+        label += len(path)
+
+
 # -- the plat -------------------------------------------------------------------------------
 
 
@@ -235,6 +251,7 @@ def test_knotinfo_braids_draw_as_one_curve():
         plat = ClosedBraid.from_word(row.braid).to_plat()
         (panel,) = panels(plat_svg(plat, max_rows=12))
         check_panel(panel, plat)
+        check_against_pd(panel, plat)
         assert panel.get("data-components") == "1"
 
 
@@ -286,6 +303,8 @@ def test_drawing_laws(case):
     (panel,) = panels(plat_svg(plat, max_rows=rows))
     check_panel(panel, plat)
     check_trace(panel, plat)
+    if all(trace_plat(plat)) or not plat.word:  # no crossingless component: PD exists
+        check_against_pd(panel, plat)
 
 
 def test_before_after_two_panels():
