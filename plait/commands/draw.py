@@ -50,6 +50,9 @@ def run(args: argparse.Namespace) -> int:
             raise InputError("--strands does not apply to a folder")
         if (folder / "results.jsonl").is_file() and not (folder / "best.json").is_file():
             return _batch(folder, out, args)
+        if not (folder / "best.json").is_file():
+            raise InputError(f"{folder} is neither a run folder (no best.json) nor a batch "
+                             f"output folder (no results.jsonl)")
         rf = read_run_folder(folder)
         notes = [rf.certificate_note()]
         if args.before_after:
