@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import itertools
+from collections import deque
 from dataclasses import dataclass
 
 from plait.errors import InputError
@@ -231,22 +232,27 @@ def diagram_arcs(pd: PDCode) -> DiagramArcs:
 def color_closure(arcs: DiagramArcs, seeds) -> tuple[set[int], list[ColoringStep]]:
     """Apply the coloring rule from ``seeds`` until it stops.
 
-    Returns the colored arcs and the steps taken, in order. Crossings are scanned in
-    rounds; within a round in crossing order (a deterministic breadth-first sequence).
+    Returns the colored arcs and the steps taken, in order. A queue of crossings to look
+    at is fed with the crossings touching each newly colored arc (crossings first in
+    index order), so the cost is linear in the number of crossings.
     """
     colored = set(seeds)
     steps: list[ColoringStep] = []
-    changed = True
-    while changed:
-        changed = False
-        for j in range(len(arcs.over)):
-            o, i, u = arcs.over[j], arcs.under_in[j], arcs.under_out[j]
-            if o not in colored or (i in colored) == (u in colored):
-                continue
-            new, src = (u, i) if i in colored else (i, u)
-            colored.add(new)
-            steps.append(ColoringStep(len(steps) + 1, j, new, src, o))
-            changed = True
+    # touching[a] = crossings where arc a is the over-arc or an under-arc
+    touching: dict[int, list[int]] = {}
+    for j in range(len(arcs.over)):
+        for a in {arcs.over[j], arcs.under_in[j], arcs.under_out[j]}:
+            touching.setdefault(a, []).append(j)
+    queue = deque(range(len(arcs.over)))
+    while queue:
+        j = queue.popleft()
+        o, i, u = arcs.over[j], arcs.under_in[j], arcs.under_out[j]
+        if o not in colored or (i in colored) == (u in colored):
+            continue
+        new, src = (u, i) if i in colored else (i, u)
+        colored.add(new)
+        steps.append(ColoringStep(len(steps) + 1, j, new, src, o))
+        queue.extend(touching.get(new, ()))
     return colored, steps
 
 
