@@ -17,7 +17,12 @@ from plait.moves.records import (
     MoveRecord,
 )
 from plait.moves.replay import ReplayResult, replay
-from plait.moves.stabilize import destab_sites, destabilize_all, isolating_moves
+from plait.moves.stabilize import (
+    destab_sites,
+    destabilize_all,
+    isolating_moves,
+    seek_destabilization,
+)
 from plait.moves.walk import random_walk, scramble
 
 __all__ = [
@@ -42,6 +47,7 @@ __all__ = [
     "destab_sites",
     "destabilize_all",
     "isolating_moves",
+    "seek_destabilization",
     "write_certificate",
     "load_certificate",
     "verify_certificate",

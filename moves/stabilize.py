@@ -111,7 +111,7 @@ def destab_sites(word: Sequence[int], strands: int) -> list[tuple[int, int]]:
 
 
 def destabilize_all(
-    plat: PlatWord, seek: int = 0, lookahead: int = 0, budget: int = 3000
+    plat: PlatWord, seek: int = 0, explore: int = 0
 ) -> tuple[PlatWord, list[MoveRecord]]:
     """Canonicalize and destabilize until no stabilization pattern is left.
 
@@ -119,10 +119,9 @@ def destabilize_all(
     commutation normal form; recorded as moves) and removes the first pair found by
     :func:`destab_sites`. With ``seek > 0``, up to that many greedy steps of
     :func:`isolating_moves` are also taken when no pattern is present, each strictly
-    lowering (fewest letters touching a pair, length). With ``lookahead > 0``, when no
-    greedy step helps, :func:`seek_destabilization` searches that many moves deep (at
-    most ``budget`` words) for a word with a stabilization pattern; this counts as one
-    of the ``seek`` steps.
+    lowering (fewest letters touching a pair, length). With ``explore > 0``, when no
+    greedy step helps, :func:`seek_destabilization` looks through up to that many words
+    for one with a stabilization pattern; a success counts as one of the ``seek`` steps.
 
     Returns
     -------
@@ -147,8 +146,8 @@ def destabilize_all(
         if steps_left <= 0:
             break
         best = next(iter(isolating_moves(cur)), None)
-        if best is None and lookahead > 0:
-            found = seek_destabilization(cur, lookahead, budget=budget)
+        if best is None and explore > 0:
+            found = seek_destabilization(cur, budget=explore)
             if found is not None:
                 best = (found[0], found[1], None)
         if best is None:
@@ -207,22 +206,29 @@ def isolating_moves(
         yield recs, can, key
 
 
+def _seek_key(word: Sequence[int], strands: int) -> tuple[int, int, int]:
+    # (fewest letters on one touched pair, the two fewest together, length)
+    count, _ = pair_touch(word, strands)
+    t = sorted(c for c in count if c > 0)
+    return (t[0] if t else 0, sum(t[:2]), len(word))
+
+
 def seek_destabilization(
     plat: PlatWord,
-    depth: int = 3,
-    slack: int = 6,
-    budget: int = 3000,
+    budget: int = 2000,
+    slack: int = 8,
     kinds: frozenset[str] | None = None,
 ) -> tuple[list[MoveRecord], PlatWord] | None:
-    """Breadth-first search for a nearby word with a stabilization pattern.
+    """Best-first search for a nearby word with a stabilization pattern.
 
     Greedy isolation can stall: a destabilization is often reached only through words
     that are longer and no more isolated (for the figure-eight knot's 3-bridge plat
     ``2 4 -3 2 -3 -4``, a pair-threading factor, a handle reduction and a braid relation
-    lead to the kink ``-2 -2 4 3 -2``). Words are compared in canonical form; the
-    search explores at most ``depth`` moves of the given kinds (default: pairing-subgroup
-    factors, braid relations, handle reductions), words at most ``slack`` letters longer
-    than ``plat``, and at most ``budget`` distinct words.
+    lead to the kink ``-2 -2 4 3 -2``). Words are compared in canonical form and
+    expanded in order of ``(fewest letters touching one pair, the two fewest together,
+    length)``, by moves of the given kinds (default: pairing-subgroup factors, braid
+    relations, handle reductions); words more than ``slack`` letters longer than
+    ``plat`` are dropped, and at most ``budget`` distinct words are generated.
 
     Returns
     -------
@@ -230,6 +236,8 @@ def seek_destabilization(
         The moves (each followed by its canonicalization records) to a canonical word
         where :func:`destab_sites` finds a pair, or None.
     """
+    import heapq
+
     from plait.moves.canonical import canonical, canonical_with_moves
     from plait.moves.graph import apply_move, neighbor_deltas
     from plait.moves.records import PAIRING_KINDS
@@ -243,43 +251,36 @@ def seek_destabilization(
     parent: dict[tuple[int, ...], tuple[tuple[int, ...], MoveRecord] | None] = {
         start.word: None
     }
-    frontier = [start]
+    heap = [(_seek_key(start.word, start.strands), 0, start)]
     cap = plat.length + slack
     goal = None
-    for _ in range(depth):
-        nxt = []
-        for p in frontier:
-            for rec, L in neighbor_deltas(p, kinds):
-                if L > cap + 4:  # canonicalization shortens by at most what it absorbs
-                    continue
-                c = canonical(apply_move(p, rec))
-                if c.word in parent or c.length > cap:
-                    continue
-                parent[c.word] = (p.word, rec)
-                if destab_sites(c.word, c.strands):
-                    goal = c
-                    break
-                nxt.append(c)
-                if len(parent) >= budget:
-                    break
-            if goal is not None or len(parent) >= budget:
+    tick = 0
+    while heap and goal is None and len(parent) < budget:
+        _, _, p = heapq.heappop(heap)
+        for rec, _L in neighbor_deltas(p, kinds):
+            c = canonical(apply_move(p, rec))
+            if c.word in parent or c.length > cap:
+                continue
+            parent[c.word] = (p.word, rec)
+            if destab_sites(c.word, c.strands):
+                goal = c
                 break
-        if goal is not None or len(parent) >= budget:
-            break
-        frontier = nxt
+            tick += 1
+            heapq.heappush(heap, (_seek_key(c.word, c.strands), tick, c))
+            if len(parent) >= budget:
+                break
     if goal is None:
         return None
     path = []
     w = goal.word
     while parent[w] is not None:
         pw, rec = parent[w]
-        path.append((pw, rec))
+        path.append(rec)
         w = pw
     records: list[MoveRecord] = []
-    first, crec = canonical_with_moves(plat)
+    cur, crec = canonical_with_moves(plat)
     records += crec
-    cur = first
-    for _pw, rec in reversed(path):
+    for rec in reversed(path):
         cur, crec = canonical_with_moves(apply_move(cur, rec))
         records += [rec, *crec]
     return records, cur

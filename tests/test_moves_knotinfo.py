@@ -29,14 +29,14 @@ def test_twenty_walks_keep_jones(row):
             assert replay(p, recs).final == q
 
 
-def test_lookahead_finds_the_two_bridge_figure_eight():
+def test_best_first_search_finds_the_two_bridge_figure_eight():
     # source: KnotInfo via database-knotinfo: 4_1 has braid [1,-2,1,-2], bridge index 2
     # and this Jones polynomial; its braid plat has 3 bridges and a greedy descent stalls
     row = knot("4_1")
     p = canonical(ClosedBraid.from_word(row.braid).to_plat())
     assert p.bridges == 3
     d0, _ = destabilize_all(p, seek=10)
-    d, recs = destabilize_all(p, seek=10, lookahead=3)
+    d, recs = destabilize_all(p, seek=10, explore=500)
     assert d0.bridges == 3 and d.bridges == row.bridge_index == 2
     assert jones(d) == row.jones
     assert replay(p, recs).final == d
