@@ -296,8 +296,23 @@ def _columns(length: int, max_rows: int) -> list[tuple[int, int]]:
     return [(a, min(length, a + per)) for a in range(0, length, per)]
 
 
+def _rows(word: Sequence[int], compact: bool) -> list[list[int]]:
+    # Letter indices of each row. One letter per row, or with ``compact`` a letter joins
+    # the row of the letter before it when it acts on positions at least two away from
+    # every letter of that row (far letters commute, so the braid read row by row is the
+    # same); every letter keeps its own crossing group either way.
+    rows: list[list[int]] = []
+    for j, g in enumerate(word):
+        if compact and rows and all(abs(abs(g) - abs(word[i])) >= 2 for i in rows[-1]):
+            rows[-1].append(j)
+        else:
+            rows.append([j])
+    return rows
+
+
 def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtitle: str | None,
-           positions: bool, letters: bool, arrows: bool) -> tuple[Node, float, float]:
+           positions: bool, letters: bool, arrows: bool,
+           compact: bool = False) -> tuple[Node, float, float]:
     """One plat as a group of columns; returns the group, its width and its height."""
     if plat.length > MAX_DRAW_LETTERS:
         raise InputError(f"draw: {plat.length} letters is over the limit of {MAX_DRAW_LETTERS} "
@@ -309,10 +324,12 @@ def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtit
     colors = component_colors(ncomp)
     sp, rh, lead = style.spacing, style.row, style.lead
     cap_h = 0.85 * sp  # control height of a cap; its top is at 3/4 of this
-    cols = _columns(len(word), style.max_rows)
+    rows_all = _rows(word, compact)
+    cols = _columns(len(rows_all), style.max_rows)  # rows [a, b) of each column
     multi = len(cols) > 1
-    left = 34.0 if letters else 10.0  # gutter for letter indices
-    right = 30.0 if letters else 10.0  # gutter for generators
+    per_row = max((len(r) for r in rows_all), default=1)
+    left = (10.0 + 24.0 * per_row) if letters else 10.0  # gutter for letter indices
+    right = (6.0 + 30.0 * per_row) if letters else 10.0  # gutter for generators
     colw = (n2 - 1) * sp
     colgap = 26.0
     col_pitch = left + colw + right + colgap
@@ -350,12 +367,15 @@ def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtit
     for ci, (a, b) in enumerate(cols):
         rows = b - a
         bottom = 2 * lead + rows * rh
+        # first and last letter of the column, and the letter levels at its two ends
+        la = rows_all[a][0] if rows else 0
+        lb = rows_all[b - 1][-1] + 1 if rows else 0
         col = panel.add(Node("g", {"class": "column", "data-column": ci + 1,
-                                   "data-first": a + 1, "data-last": b},
+                                   "data-first": la + 1, "data-last": lb},
                              offset=((ci % per_band) * col_pitch + left,
                                      y0 + (ci // per_band) * band_h)))
         if multi:
-            col.add(_text(colw / 2, y_coltitle, f"letters {a + 1}\u2013{b}", style,
+            col.add(_text(colw / 2, y_coltitle, f"letters {la + 1}\u2013{lb}", style,
                           size=10, cls="column-title"))
         # the top of the column: caps, or marks continuing the previous column
         if ci == 0:
@@ -373,35 +393,36 @@ def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtit
             if positions:
                 col.add(_position_labels(xs, n2, -0.75 * cap_h - 5, style))
         else:
-            col.add(_continuation(comp[a], xs, n2, colors, style, "in", 0.0, y_note,
+            col.add(_continuation(comp[la], xs, n2, colors, style, "in", 0.0, y_note,
                                   f"continued from column {ci}"))
             if positions:
                 col.add(_position_labels(xs, n2, y_pos, style))
         # straight runs of strand between crossings, one path per run
         vert = col.add(Node("g", {"class": "verticals"}))
         for p in range(1, n2 + 1):
-            y_start, level = 0.0, a
+            y_start, level = 0.0, la
             for r in range(rows):
-                g = word[a + r]
-                k = abs(g)
-                if p in (k, k + 1):
+                row = rows_all[a + r]
+                if any(p in (abs(word[j]), abs(word[j]) + 1) for j in row):
                     y_end = lead + r * rh
                     if y_end > y_start:
                         vert.add(_vertical(xs[p], y_start, y_end, p, comp[level][p], colors,
                                            style))
-                    y_start, level = y_end + rh, a + r + 1
+                    y_start, level = y_end + rh, row[-1] + 1
             if bottom > y_start:
                 vert.add(_vertical(xs[p], y_start, bottom, p, comp[level][p], colors, style))
         # crossings: one group per letter
         for r in range(rows):
-            j = a + r
-            col.add(_crossing(j, word[j], comp[j], xs, lead + r * rh, style, colors))
+            row = rows_all[a + r]
+            for j in row:
+                col.add(_crossing(j, word[j], comp[j], xs, lead + r * rh, style, colors))
             if letters:
                 yc = lead + r * rh + rh / 2 + 3.5
-                col.add(_text(-12, yc, str(j + 1), style, size=9, cls="letter-label",
-                              anchor="end"))
-                col.add(_text(colw + 10, yc, _generator_text(word[j]), style, size=9,
-                              cls="generator-label", anchor="start", color=style.ink))
+                col.add(_text(-12, yc, " ".join(str(j + 1) for j in row), style, size=9,
+                              cls="letter-label", anchor="end"))
+                col.add(_text(colw + 10, yc, "  ".join(_generator_text(word[j]) for j in row),
+                              style, size=9, cls="generator-label", anchor="start",
+                              color=style.ink))
         # the bottom of the column: cups, or marks continuing in the next column
         if ci == len(cols) - 1:
             cups = col.add(Node("g", {"class": "cups"}))
@@ -416,7 +437,7 @@ def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtit
             if positions:
                 col.add(_position_labels(xs, n2, bottom + 0.75 * cap_h + 13, style))
         else:
-            col.add(_continuation(comp[b], xs, n2, colors, style, "out", bottom, bottom + 20,
+            col.add(_continuation(comp[lb], xs, n2, colors, style, "out", bottom, bottom + 20,
                                   f"continued in column {ci + 2}"))
     return panel, width, height
 
@@ -566,7 +587,8 @@ def _frame(panels: list[tuple[Node, float, float]], style: Style, notes: Iterabl
 
 def draw_plat(plat: PlatWord, *, positions: bool = False, letters: bool = False,
               arrows: bool = False, max_rows: int | None = None, title: str | None = None,
-              notes: Iterable[str] = (), style: Style | None = None) -> Drawing:
+              notes: Iterable[str] = (), compact: bool = False,
+              style: Style | None = None) -> Drawing:
     """Picture of the plat closure of ``plat``.
 
     Strands sit at positions ``1..2n`` left to right; caps join ``(2i-1, 2i)`` above the
@@ -585,11 +607,14 @@ def draw_plat(plat: PlatWord, *, positions: bool = False, letters: bool = False,
         Label the positions; label each row with its letter index and generator; mark
         each component's orientation (plait's convention) with an arrowhead.
     max_rows : int, optional
-        Longest column (default 50).
+        Rows in the longest column (default 50).
     title : str, optional
         Heading; default names bridges, crossings and components.
     notes : iterable of str
         Lines of text under the picture.
+    compact : bool
+        Let a letter share the row of the letter before it when their positions are at
+        least two apart (far letters commute); each letter keeps its own group.
 
     Returns
     -------
@@ -604,7 +629,7 @@ def draw_plat(plat: PlatWord, *, positions: bool = False, letters: bool = False,
     style = _with_rows(style, max_rows)
     panel = _panel(plat, style, role="plat", title=title or _summary(plat),
                    subtitle=_summary(plat) if title else None, positions=positions,
-                   letters=letters, arrows=arrows)
+                   letters=letters, arrows=arrows, compact=compact)
     drawing = _frame([panel], style, notes, None)
     drawing.label = f"plat {plat.strands} strands: {plat}" if plat.length <= 200 else \
         f"plat on {plat.strands} strands, {plat.length} letters"
@@ -613,6 +638,7 @@ def draw_plat(plat: PlatWord, *, positions: bool = False, letters: bool = False,
 
 def draw_compare(before: PlatWord, after: PlatWord, *, positions: bool = False,
                  letters: bool = False, arrows: bool = False, max_rows: int | None = None,
+                 compact: bool = False,
                  titles: tuple[str, str] | None = None, notes: Iterable[str] = (),
                  heading: str | None = None, style: Style | None = None) -> Drawing:
     """Two plats side by side with an arrow between them: "before" and "after".
@@ -624,9 +650,9 @@ def draw_compare(before: PlatWord, after: PlatWord, *, positions: bool = False,
     t0, t1 = titles or ("before", "after")
     panels = [
         _panel(before, style, role="before", title=t0, subtitle=_summary(before),
-               positions=positions, letters=letters, arrows=arrows),
+               positions=positions, letters=letters, arrows=arrows, compact=compact),
         _panel(after, style, role="after", title=t1, subtitle=_summary(after),
-               positions=positions, letters=letters, arrows=arrows),
+               positions=positions, letters=letters, arrows=arrows, compact=compact),
     ]
     drawing = _frame(panels, style, notes, "plait", heading)
     drawing.label = heading or f"before: {_summary(before)}; after: {_summary(after)}"

@@ -294,17 +294,32 @@ def test_many_columns_continue_in_bands():
     st.just(2 * n),
     st.lists(st.integers(1, max(1, 2 * n - 1)).flatmap(
         lambda k: st.sampled_from((k, -k))), max_size=25),
-    st.integers(1, 9))))
+    st.integers(1, 9), st.booleans())))
 def test_drawing_laws(case):
-    # Law: for every plat word and wrapping, the picture has one crossing group per letter
-    # drawn by the convention, n caps and cups, and one colour per closed curve.
-    strands, word, rows = case
+    # Law: for every plat word, wrapping and row packing, the picture has one crossing
+    # group per letter drawn by the convention, n caps and cups, and one colour per
+    # closed curve.
+    strands, word, rows, compact = case
     plat = PlatWord(strands, tuple(g for g in word if abs(g) < strands))
-    (panel,) = panels(plat_svg(plat, max_rows=rows))
+    (panel,) = panels(plat_svg(plat, max_rows=rows, compact=compact))
     check_panel(panel, plat)
     check_trace(panel, plat)
     if all(trace_plat(plat)) or not plat.word:  # no crossingless component: PD exists
         check_against_pd(panel, plat)
+
+
+def test_compact_rows_share_only_far_consecutive_letters():
+    # Far letters commute (Artin's braid relation sigma_i sigma_j = sigma_j sigma_i for
+    # |i - j| >= 2), so they may share a row; the row order keeps the word order.
+    plat = PlatWord(8, (1, 4, 7, 2, 6, -3, 5, 1))
+    (panel,) = panels(plat_svg(plat, compact=True))
+    check_panel(panel, plat)
+    rows: dict[float, list[int]] = {}
+    for g in panel.iter(NS + "g"):
+        if g.get("class") == "crossing":
+            over = next(e for e in g if e.get("class") == "over")
+            rows.setdefault(endpoints(over.get("d"))[0][1], []).append(int(g.get("data-letter")))
+    assert [rows[y] for y in sorted(rows)] == [[1, 2, 3], [4, 5], [6, 7, 8]]
 
 
 def test_before_after_two_panels():

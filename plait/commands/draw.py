@@ -26,7 +26,10 @@ def configure(p: argparse.ArgumentParser) -> None:
     p.add_argument("--arrows", action="store_true",
                    help="mark each component's orientation with an arrowhead")
     p.add_argument("--rows", type=int, metavar="N",
-                   help="letters per column before the word wraps (default 50)")
+                   help="rows per column before the word wraps (default 50)")
+    p.add_argument("--compact", action="store_true",
+                   help="let a letter share the row of the letter before it when their "
+                        "positions are at least two apart")
     p.add_argument("--title", metavar="TEXT", help="heading of the picture")
     p.add_argument("--before-after", dest="before_after", action="store_true",
                    help="for a run folder: draw the start plat and the best plat side by side")
@@ -42,7 +45,7 @@ def run(args: argparse.Namespace) -> int:
         raise InputError(f"--rows must be at least 1, got {args.rows}")
     folder = Path(args.input) if args.input is not None else None
     opts = dict(positions=args.positions, letters=args.letters, arrows=args.arrows,
-                max_rows=args.rows)
+                max_rows=args.rows, compact=args.compact)
     if folder is not None and folder.is_dir():
         if any(v is not None for v in (args.plat, args.braid, args.pd, args.file)):
             raise InputError("give either a folder or one of --plat, --braid, --pd, --file")
@@ -85,7 +88,8 @@ def _summary(plat) -> str:
 def _batch(folder: Path, out: Path, args: argparse.Namespace) -> int:
     from plait.batchplot import batch_summary_svg, read_results
 
-    if args.before_after or args.positions or args.letters or args.arrows or args.rows:
+    if (args.before_after or args.positions or args.letters or args.arrows or args.rows
+            or args.compact):
         raise InputError("plat drawing options do not apply to a batch summary")
     rows, bad = read_results(folder / "results.jsonl")
     info = batch_summary_svg(rows, out, unreadable=bad,
