@@ -22,6 +22,10 @@ def write_text_atomic(path: str | os.PathLike, text: str) -> None:
             fh.write(text)
             fh.flush()
             os.fsync(fh.fileno())
+        # mkstemp creates 0600 files; give the result the usual umask-based mode
+        umask = os.umask(0)
+        os.umask(umask)
+        os.chmod(tmp, 0o666 & ~umask)
         os.replace(tmp, path)
     except BaseException:
         try:
