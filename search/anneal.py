@@ -89,7 +89,8 @@ class Annealer:
         self._deltas: list | None = None
 
     def live_nodes(self) -> list[int]:
-        return [self.node]
+        # the loop-erasure table points at nodes the walk may return to: keep them
+        return [self.node, *self._seen.values()]
 
     def state(self) -> dict:
         return {

@@ -230,6 +230,8 @@ class SearchContext:
         fn = getattr(_moves, "destabilize_all", None)
         if fn is None or plat.bridges <= self.lower_bound:
             return plat, node
+        if not seek and not _moves.destab_sites(plat.word, plat.strands):
+            return plat, node  # nothing visible: skip the second canonical form
         new, recs = fn(plat, seek=seek) if seek else fn(plat)
         if not recs:
             return plat, node

@@ -44,8 +44,8 @@ class PortfolioParams:
         from the overall best plat; after the last the cycle begins again.
     """
 
-    phases: list = field(default_factory=lambda: [["beam", 0.4], ["anneal", 0.35],
-                                                  ["astar", 0.25]])
+    phases: list = field(default_factory=lambda: [["beam", 0.35], ["astar", 0.35],
+                                                  ["anneal", 0.3]])
 
 
 def _params(cls, obj: dict | None):

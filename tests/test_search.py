@@ -151,6 +151,19 @@ def test_same_seed_same_result_and_resume_of_done_run(tmp_path):
     assert _same(a, c) and c.status == "done"
 
 
+@pytest.mark.parametrize("strategy", ["anneal", "auto"])
+def test_checkpoints_do_not_change_the_run(strategy, tmp_path):
+    # a checkpoint after every step (pruning the path tree each time) gives the same
+    # result as rare checkpoints, and the certificate still replays
+    scr, _ = moves.scramble(_plat_of("6_1"), seed=9)
+    a = reduce(scr, strategy=strategy, steps=120, seed=3, run_dir=tmp_path / "a",
+               checkpoint_every=1e-6)
+    b = reduce(scr, strategy=strategy, steps=120, seed=3, run_dir=tmp_path / "b",
+               checkpoint_every=1e3)
+    assert _same(a, b)
+    assert moves.verify_certificate(a.certificate).ok
+
+
 def test_run_folder_files(tmp_path):
     d = tmp_path / "run"
     res = reduce(PlatWord.from_word((2, 2, 2, 1, -1)), steps=20, run_dir=d)
