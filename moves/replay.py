@@ -316,7 +316,7 @@ def replay(start: PlatWord, records: Iterable[MoveRecord | list | dict]) -> Repl
             if not isinstance(rec, MoveRecord):
                 rec = MoveRecord.from_json(rec)
             w, strands = check_step(w, strands, rec)
-        except (StepError, ValueError) as exc:
+        except (StepError, ValueError, TypeError, IndexError) as exc:
             return ReplayResult(False, None, t, f"{rec}: {exc}", count)
         count += 1
     return ReplayResult(True, PlatWord(strands, tuple(w)), None, "", count)

@@ -179,3 +179,19 @@ def test_inner_stabilization_at_a_split_position():
     # where letters cross between pairs 2 and 3 the local form does not exist
     bad = PlatWord(8, (4,))
     assert not replay(bad, [MoveRecord("stab", (3, 0, 4))]).ok
+
+
+@given(plats(max_bridges=3, max_length=10),
+       st.lists(st.tuples(st.sampled_from(sorted(MOVE_KINDS)),
+                          st.lists(st.integers(-7, 12), min_size=1, max_size=5)),
+                min_size=1, max_size=4))
+@settings(max_examples=150, deadline=None)
+def test_replay_accepts_only_moves_that_keep_the_link(p, raw):
+    # law: whatever records are fed to the checked replay, an accepted sequence ends at a
+    # plat of the same link (Birman 1976), so forged certificates cannot lie
+    recs = [[kind, *args] for kind, args in raw]
+    res = replay(p, recs)
+    if res.ok:
+        same_link(p, res.final, str(recs))
+    else:
+        assert res.failed_step is not None and res.reason
