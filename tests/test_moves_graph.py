@@ -195,3 +195,14 @@ def test_replay_accepts_only_moves_that_keep_the_link(p, raw):
         same_link(p, res.final, str(recs))
     else:
         assert res.failed_step is not None and res.reason
+
+
+def test_walks_from_the_unknot_come_back_to_the_empty_plat():
+    # source: Schubert 1954 — the unknot is the only 1-bridge knot and its minimal plat is
+    # the empty word on 2 strands; the reducer must find it from random presentations
+    p = PlatWord(2, ())
+    for seed in range(10):
+        q, _ = random_walk(p, 80, seed, max_bridges=4)
+        d, recs = destabilize_all(q, seek=40, explore=1000)
+        assert (d.bridges, d.length) == (1, 0), seed
+        assert replay(q, recs).final == d
