@@ -183,7 +183,8 @@ class _Run:
         self.strategy = make_strategy(cfg["strategy"], ctx, cfg.get("params"), self.budget,
                                       self.elapsed)
         self.folder.log("start", strategy=cfg["strategy"], seed=cfg["seed"],
-                        time=cfg["time"], steps=cfg["steps"], input=_plat_obj(self.start),
+                        time_budget=cfg["time"], steps_budget=cfg["steps"],
+                        input=_plat_obj(self.start),
                         lower=lower)
         self._write_best(force=True)
         self._checkpoint("running")
@@ -318,6 +319,8 @@ class _Run:
                 if bar is not None:
                     self._bar_update(bar)
             self._write_best(force=True)
+            if bar is not None:
+                self._bar_update(bar, force=True)
             if self.interrupt is not None:
                 self._checkpoint("interrupted")
                 self.folder.log("interrupted", signal=int(self.interrupt),
@@ -370,9 +373,9 @@ class _Run:
                     bar_format="{desc}: {percentage:3.0f}%|{bar}| {n_fmt}/{total_fmt} "
                                "[{elapsed}]{postfix}")
 
-    def _bar_update(self, bar) -> None:
+    def _bar_update(self, bar, force: bool = False) -> None:
         now = _time.monotonic()
-        if now - self._bar_last < 0.25:
+        if not force and now - self._bar_last < 0.25:
             return
         self._bar_last = now
         ctx = self.ctx
