@@ -17,7 +17,7 @@ from plait.search.engine import (
     rng_state_to_json,
     word_hash,
 )
-from plait.search.portfolio import STRATEGY_NAMES, Budget, make_strategy
+from plait.search.portfolio import STRATEGY_NAMES, Budget, check_params, make_strategy
 from plait.search.runfolder import DEFAULT_RUNS, STATE_FORMAT, RunFolder, new_run_dir
 
 from plait.convert import to_plat
@@ -526,6 +526,9 @@ def reduce(presentation, *, strategy: str = "auto", time: float | None = None,
         bad = [k for k in kinds if k not in _moves.MOVE_KINDS]
         if bad:
             raise InputError(f"kinds: unknown move kind {bad[0]!r}")
+    if params is not None and not isinstance(params, dict):
+        raise InputError(f"params: expected a dict of strategy parameters, got {params!r}")
+    check_params(strategy, params)
     folder = RunFolder(run_dir if run_dir is not None else new_run_dir(runs_root))
     folder.create()
     config = {

@@ -12,7 +12,10 @@ from plait.search.engine import SearchContext
 
 from plait.errors import InputError
 
-__all__ = ["STRATEGY_NAMES", "make_strategy", "Portfolio", "PortfolioParams", "Budget"]
+__all__ = [
+    "STRATEGY_NAMES", "make_strategy", "check_params", "Portfolio", "PortfolioParams",
+    "Budget",
+]
 
 #: Strategy names accepted by :func:`make_strategy` and ``plait reduce --strategy``.
 STRATEGY_NAMES = ("auto", "beam", "astar", "anneal")
@@ -55,6 +58,18 @@ def _params(cls, obj: dict | None):
         raise InputError(f"strategy parameters: {exc}") from None
 
 
+def check_params(name: str, params: dict | None) -> None:
+    """Raise :class:`InputError` when ``params`` are not valid fields of the strategy's
+    parameter dataclass (checked before a run folder is created)."""
+    if name == "auto":
+        Portfolio.check(_params(PortfolioParams, params))
+    elif name in _SINGLE:
+        _params(_SINGLE[name][1], params)
+    else:
+        raise InputError(f"strategy: unknown name {name!r} (choose from "
+                         f"{', '.join(STRATEGY_NAMES)})")
+
+
 def make_strategy(name: str, ctx: SearchContext, params: dict | None, budget: Budget,
                   elapsed: Callable[[], float], state: dict | None = None):
     """A strategy object by name (``auto``, ``beam``, ``astar``, ``anneal``).
@@ -89,10 +104,7 @@ class Portfolio:
         self.p = params
         self.budget = budget
         self.elapsed = elapsed
-        for ph in self.p.phases:
-            if not (isinstance(ph, (list, tuple)) and len(ph) == 2 and ph[0] in _SINGLE
-                    and float(ph[1]) > 0):
-                raise InputError(f"auto: bad phase {ph!r} (expected [strategy, share])")
+        self.check(params)
         if state is None:
             self.phase = 0
             self.phase_start_steps = ctx.steps
@@ -103,6 +115,20 @@ class Portfolio:
             self.phase_start_steps = state["phase_start_steps"]
             self.phase_start_time = state["phase_start_time"]
             self.sub = self._new_sub(state["sub"])
+
+    @staticmethod
+    def check(params: PortfolioParams) -> None:
+        if not isinstance(params.phases, (list, tuple)) or not params.phases:
+            raise InputError("auto: phases must be a non-empty list of [strategy, share]")
+        for ph in params.phases:
+            ok = isinstance(ph, (list, tuple)) and len(ph) == 2 and ph[0] in _SINGLE
+            if ok:
+                try:
+                    ok = float(ph[1]) > 0
+                except (TypeError, ValueError):
+                    ok = False
+            if not ok:
+                raise InputError(f"auto: bad phase {ph!r} (expected [strategy, share > 0])")
 
     def _new_sub(self, state: dict | None):
         name = self.p.phases[self.phase][0]

@@ -193,6 +193,17 @@ def test_cli_reduce_json_contract_and_verify(tmp_path, capsys):
     assert main(["verify", out["certificate"]]) == 0
 
 
+def test_bad_parameters_create_no_run_folder(tmp_path):
+    p = PlatWord.from_word((2, 2, 2))
+    for kw in ({"strategy": "beam", "params": {"widht": 3}},
+               {"strategy": "auto", "params": {"phases": [["beam", 0]]}},
+               {"steps": -1}, {"time": 0}, {"seed": "x"}, {"objective": "fast"},
+               {"kinds": ["teleport"]}):
+        with pytest.raises(InputError):
+            reduce(p, run_dir=tmp_path / "r", **kw)
+        assert not (tmp_path / "r").exists()
+
+
 def test_cli_bad_input_exit_2(tmp_path, capsys):
     assert main(["reduce", "--braid", "1 1 1", "--time", "-1", "--quiet"]) == 2
     assert main(["reduce", "--braid", "1 1 1", "--strategy", "bogus"]) == 2
