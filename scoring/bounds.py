@@ -16,6 +16,7 @@ __all__ = [
     "separating_invariants",
     "FOX_PRIMES",
     "WITNESS_TARGETS",
+    "RANK_TARGETS",
 ]
 
 #: Primes tried for Fox colorings besides those dividing the determinant.
@@ -25,6 +26,10 @@ FOX_PRIMES = (3, 5, 7)
 #: other involution classes; non-involutive classes as a last resort), cheapest first.
 WITNESS_TARGETS = ("S4/transposition", "S5/transposition", "B3/short", "B3/long",
                    "A4/3-cycle", "S4/4-cycle", "A5/3-cycle", "A5/5-cycle")
+
+#: Targets tried for b >= 4 and more once b >= 3 is proved: a knot group image generated
+#: by transpositions moving s points needs s - 1 meridians.
+RANK_TARGETS = ("S5/transposition", "S6/transposition")
 
 #: A homomorphism search gives up (and its count is not used) after pushing this many
 #: letters of the word.
@@ -303,18 +308,32 @@ def bridge_lower_bound(plat: PlatWord) -> LowerBound:
             for name in WITNESS_TARGETS:
                 w = _witness(plat, name)
                 if w is not None:
-                    found.append((w, "meridional-rank", (
-                        f"a homomorphism onto {name} (meridians to {name.split('/')[1]}s) "
-                        f"needs {w} meridian generators → b ≥ {w} "
-                        "(Boileau–Zieschang 1985; Baader–Blair–Kjuchukova 2021)")))
+                    found.append((w, "meridional-rank", _rank_reason(name, w)))
                     break
             else:
                 found.append((best, "undecided", f"could not rule out 2 bridges: {why}"))
+    best = max(b for b, _, _ in found)
+    if best >= 3:
+        # transposition images on s points need s - 1 meridians: b >= 4 from S_5, >= 5
+        # from S_6, when the plat leaves room for it
+        for name in RANK_TARGETS:
+            if plat.bridges <= best:
+                break
+            w = _witness(plat, name)
+            if w is not None and w > best:
+                best = w
+                found.append((w, "meridional-rank", _rank_reason(name, w)))
     best = max(b for b, _, _ in found)
     method = next(m for b, m, _ in found if b == best)
     # the baseline, then every reason that reaches the bound (weaker ones are implied)
     reasons = [found[0][2]] + [r for b, _, r in found[1:] if b == best]
     return LowerBound(best, tuple(reasons), method, best == plat.bridges)
+
+
+def _rank_reason(name: str, w: int) -> str:
+    return (f"a homomorphism onto {name} (meridians to {name.split('/')[1]}s) needs {w} "
+            f"meridian generators → b ≥ {w} (meridional rank ≤ b: Boileau–Zieschang 1985; "
+            "Baader–Blair–Kjuchukova 2021)")
 
 
 def _witness(plat: PlatWord, name: str) -> int | None:
