@@ -208,6 +208,20 @@ def test_vogel_route():
             [list(c) for c in k.pd], occurrence_roles(validate_pd(k.pd))).values()))
 
 
+def test_component_that_never_passes_under():
+    # a component lying over everything is one closed arc with no ends: it must be a seed
+    # and gets its own maximum and minimum (common practice: every component of a link
+    # has a maximum, so bridges >= components)
+    plat = PlatWord(6, (-2, 2, -5, 5, -4))
+    pd = validate_pd(plat_to_pd(plat).crossings)
+    w = wirtinger(pd)
+    assert any(w.arcs.closed) and all(a in w.seeds for a in range(len(w.arcs)) if w.arcs.closed[a])
+    d = diagram_to_plat(pd)
+    assert d.plat.components == plat.components == 2
+    assert plat.components <= d.plat.bridges <= plat.bridges
+    assert _same_jones(plat, d.plat)
+
+
 def test_unknot_and_bad_method():
     # the empty diagram is the unknot: one bridge, no crossings (Schubert 1954: b = 1)
     assert pd_to_plat(validate_pd([])) == PlatWord(2, ())
