@@ -325,8 +325,9 @@ def bridge_lower_bound(plat: PlatWord) -> LowerBound:
                 found.append((w, "meridional-rank", _rank_reason(name, w)))
     best = max(b for b, _, _ in found)
     method = next(m for b, m, _ in found if b == best)
-    # the baseline, then every reason that reaches the bound (weaker ones are implied)
-    reasons = [found[0][2]] + [r for b, _, r in found[1:] if b == best]
+    # the component count of a link, then every reason that reaches the bound (weaker
+    # ones are implied)
+    reasons = [r for i, (b, _, r) in enumerate(found) if b == best or (i == 0 and comps > 1)]
     return LowerBound(best, tuple(reasons), method, best == plat.bridges)
 
 

@@ -243,6 +243,19 @@ def test_jones_and_alexander_are_not_enough(name, twin):
     assert not not_two_bridge(pb)[0]
 
 
+def test_bridge_four_by_transpositions():
+    # source: KnotInfo via database-knotinfo: 11n_71 has bridge index 4 and determinant
+    # 63; Fox colorings only give b >= 3 there, a homomorphism onto S_5 with meridians to
+    # transpositions moving all 5 points needs 4 meridians (Boileau-Zieschang 1985)
+    row = knot("11n_71")
+    assert row.bridge_index == 4
+    p = _plat("11n_71")
+    assert max(fox_coloring_dimension(p, q) for q in (3, 7)) <= 3
+    lb = bridge_lower_bound(p)
+    assert lb.value == 4 and lb.method == "meridional-rank"
+    assert lb.exact == (p.bridges == 4)
+
+
 def test_knot_with_determinant_one():
     # Schubert 1954: b(T(3,5)) = 3; KnotInfo 10_124 = T(3,5) has determinant 1, so the
     # only 2-bridge candidate is the unknot, ruled out by the Jones polynomial
