@@ -43,6 +43,13 @@ class AnnealParams:
     mix: dict = field(default_factory=dict)
 
 
+def _bridge_change(kind: str) -> int:
+    """How a move of this kind changes the bridge count."""
+    if kind in _moves.BRIDGE_REDUCING_KINDS:
+        return -1
+    return 1 if kind == "stab" else 0
+
+
 class Annealer:
     """Simulated annealing: propose a random move, accept it with the Metropolis rule.
 
@@ -114,36 +121,33 @@ class Annealer:
         return e
 
     def _proposals(self) -> list:
-        """Records of the current plat's moves, filtered by the move mix."""
+        """(record, new length, weight) of the current plat's moves, by the move mix."""
         if self._deltas is None:
             fn = getattr(_moves, "neighbor_deltas", None)
             ctx = self.ctx
             if fn is not None:
-                recs = [rec for rec, _ in fn(self.cur)]
-                ctx.explored += len(recs)
+                pairs = list(fn(self.cur, kinds=ctx.kinds))
+                ctx.explored += len(pairs)
             else:
-                recs = [rec for rec, _ in ctx.neighbors(self.cur)]
+                pairs = [(rec, nb.length) for rec, nb in ctx.neighbors(self.cur)]
             mix = self.p.mix
-            stab = set(getattr(_moves, "STABILIZING_KINDS", ()))
-            allowed = ctx.kinds
+            growing = _moves.GROWING_KINDS
             out = []
-            for rec in recs:
-                if allowed is not None and rec.kind not in allowed:
-                    continue
-                w = mix.get(rec.kind, 0.0 if rec.kind in stab else 1.0)
+            for rec, new_len in pairs:
+                w = mix.get(rec.kind, 0.0 if rec.kind in growing else 1.0)
                 if w > 0:
-                    out.append((rec, w))
+                    out.append((rec, new_len, w))
             self._deltas = out
         return self._deltas
 
-    def _pick(self, props: list):
-        total = sum(w for _, w in props)
+    def _pick(self, props: list) -> tuple:
+        total = sum(w for *_, w in props)
         x = self.ctx.rng.random() * total
-        for rec, w in props:
+        for rec, new_len, w in props:
             x -= w
             if x < 0:
-                return rec
-        return props[-1][0]
+                return rec, new_len
+        return props[-1][0], props[-1][1]
 
     def step(self) -> None:
         ctx = self.ctx
@@ -159,12 +163,21 @@ class Annealer:
                 self._restart()
                 e_cur = self._energy(self.cur)
                 continue
-            rec = self._pick(props)
-            new = ctx.apply(self.cur, rec)
-            e_new = self._energy(new)
+            rec, new_len = self._pick(props)
+            bridges = self.cur.bridges + _bridge_change(rec.kind)
+            if self.p.iso_weight and max(bridges, self.cur.bridges) > ctx.lower_bound:
+                new = ctx.apply(self.cur, rec)  # the isolation term needs the word
+                e_new = self._energy(new)
+            else:
+                # incremental: the energy follows from the record and the new length,
+                # the word is built only for an accepted move
+                new = None
+                e_new = ctx.objective.energy(bridges, new_len)
             de = e_new - e_cur
             if de > 0 and ctx.rng.random() >= math.exp(-de / self.temperature()):
                 continue
+            if new is None:
+                new = ctx.apply(self.cur, rec)
             self.accepted += 1
             self.cur, e_cur = new, e_new
             self._deltas = None
