@@ -31,8 +31,8 @@ WITNESS_TARGETS = ("S4/transposition", "S5/transposition", "B3/short", "B3/long"
 #: by transpositions moving s points needs s - 1 meridians.
 RANK_TARGETS = ("S5/transposition", "S6/transposition")
 
-#: A homomorphism search gives up (and its count is not used) after pushing this many
-#: letters of the word.
+#: A homomorphism search gives up (and its count is not used) after this many label
+#: operations.
 QUOTIENT_BUDGET = 400_000
 
 
@@ -85,7 +85,7 @@ def separating_invariants(components: int) -> tuple[tuple[str, Callable[[PlatWor
     component multiplies it by a power of ``t``: Morton 1986; Lickorish, An Introduction
     to Knot Theory, 1997, Prop. 3.7) and homomorphism counts for classes closed under
     inversion. A function returns None when its value was not computed (a homomorphism
-    search over its budget, :data:`QUOTIENT_BUDGET` letters pushed).
+    search over its budget, :data:`QUOTIENT_BUDGET` label operations).
 
     Returns
     -------
