@@ -228,21 +228,25 @@ class _Run:
         if ctx.best_node != self.verified_node or force:
             self._check(ctx.best, ctx.best_node, "cheap", self.fp_cheap)
         self.verified_node, self.verified_plat = ctx.best_node, ctx.best
-        records = ctx.paths.records(ctx.best_node)
-        _moves.write_certificate(
-            self.folder.certificate_path, self.start, records, ctx.best,
-            input_presentation_obj=self.input_obj,
-            meta={"tool": "plait reduce", "strategy": self.config["strategy"],
-                  "seed": self.config["seed"], "step": ctx.best_step})
-        self.folder.write("best.json", {
-            **_plat_obj(ctx.best), "components": ctx.best.components,
-            "objective": self.config["objective"], "key": list(ctx.best_key),
-            "step": ctx.best_step, "moves": len(records),
-        })
+        self._write_files(ctx.best, ctx.best_node, ctx.best_step)
         self.folder.log("best", bridges=ctx.best.bridges, length=ctx.best.length,
                         step=ctx.best_step, elapsed=round(self.elapsed(), 3))
         self.best_dirty = False
         self.last_best_write = now
+
+    def _write_files(self, plat: PlatWord, node: int, step: int) -> None:
+        """certificate.json (input -> plat) and best.json."""
+        records = self.ctx.paths.records(node)
+        _moves.write_certificate(
+            self.folder.certificate_path, self.start, records, plat,
+            input_presentation_obj=self.input_obj,
+            meta={"tool": "plait reduce", "strategy": self.config["strategy"],
+                  "seed": self.config["seed"], "step": step})
+        self.folder.write("best.json", {
+            **_plat_obj(plat), "components": plat.components,
+            "objective": self.config["objective"], "key": list(self.objective.key(plat)),
+            "step": step, "moves": len(records),
+        })
 
     def _check(self, plat: PlatWord, node: int, level: str, before) -> None:
         """Compare the fingerprint of ``plat`` with the input's; on a difference locate
@@ -252,6 +256,8 @@ class _Run:
             _guard(before, after, detail=f"{level} fingerprint of the best plat")
         except GuardViolation as exc:
             where = _locate_offense(self.ctx, node, before, level)
+            if not self.folder.best_path.exists():  # failed before any best was written
+                self._write_files(self.verified_plat, self.verified_node, 0)
             self.folder.log("guard", invariant=exc.invariant, level=level, offending=where,
                             rejected=_plat_obj(plat))
             self._checkpoint("guard-failed", best_node=self.verified_node,
