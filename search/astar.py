@@ -22,7 +22,8 @@ class AStarParams:
     weight : float
         ``w`` in ``f = g + w * h``; 1 is plain A*, larger is greedier.
     max_drop : int
-        Assumed largest length drop of one move (the length part of ``h`` divides by it).
+        Assumed largest length drop of one move (the length part of ``h`` divides by it;
+        see :func:`heuristic` for when it makes ``h`` admissible).
     iso_weight : float
         Weight of the (inadmissible) isolation hint while bridges exceed the lower bound.
     max_open : int
@@ -51,10 +52,12 @@ def heuristic(plat: PlatWord, lower_bound: int, target_length: int, max_drop: in
       bridges: every move changes the strand count by at most two (one bridge), and the
       lower bound is certified (no plat of the knot has fewer bridges).
     - ``(length - target_length) / max_drop`` is admissible only if no move shortens the
-      word by more than ``max_drop`` letters. Single rewrites (a cancellation, a braid
-      relation, a destabilization) drop at most 2; macro moves (handle reduction, end
-      absorption of a long pairing-subgroup element, canonical form) can drop more, so
-      with them in the move set the length part is NOT admissible.
+      word by more than ``max_drop`` letters. A cancellation drops 2, an end absorption or
+      a destabilization 1, a braid relation or commutation 0, a pairing-subgroup factor
+      meeting its inverse at an end up to 4 (the factor's length), and a handle
+      reduction or the canonical form arbitrarily many. So the length part is admissible
+      with ``max_drop = 4`` for the single moves without handle reduction; the default
+      ``max_drop = 2`` is NOT admissible, it is a guide that values a letter more.
     - The maximum of two admissible estimates is admissible; their sum would not be.
     - The isolation hint is NOT admissible (a pair can become removable in one move
       from any isolation); it is a guide, off when ``iso_weight`` is 0.

@@ -95,6 +95,29 @@ def test_positive_words_have_nothing_to_cancel(word):
     assert cancel_potential(w) == 0 and sign_mix(w) == 0 and writhe_imbalance(w) == 0
 
 
+@settings(max_examples=40, deadline=None)
+@given(st.lists(st.integers(1, 5).flatmap(lambda k: st.sampled_from([k, -k])), max_size=30))
+def test_facts_behind_the_astar_heuristic(word):
+    # The admissibility statement of plait.search.astar.heuristic rests on these: every
+    # single move changes the bridge count by at most one, and (handle reduction and the
+    # canonical-form macro aside) shortens the word by at most 4 letters, 2 for a
+    # cancellation. (Birman 1976 moves; the drop bounds are counted from the moves.)
+    from plait.search.astar import heuristic
+
+    p = PlatWord(6, tuple(word))
+    for rec, nb in moves.neighbors(p):
+        assert abs(nb.bridges - p.bridges) <= 1
+        if rec.kind != "handle":
+            assert p.length - nb.length <= 4
+        if rec.kind == "cancel":
+            assert p.length - nb.length == 2
+        # h never exceeds the moves needed to reach its own target from a neighbour + 1
+        h0 = heuristic(p, 1, 0, 4)
+        h1 = heuristic(nb, 1, 0, 4)
+        if rec.kind != "handle":
+            assert h0 <= h1 + 1  # consistency (monotone) for max_drop = 4
+
+
 # -- engine data structures -----------------------------------------------------------------
 
 def test_rng_state_round_trip_and_bounded_set():
