@@ -312,3 +312,59 @@ def test_meridional_rank_witness_is_sound():
                 assert w[0] <= r.bridge_index
                 found += 1
     assert found > 0
+
+
+def _two_bridge_link_classes(n: int) -> set[tuple[int, int]]:
+    # Conway 1970: a rational link is the closure of the rational tangle of a continued
+    # fraction [a1, ..., am] with positive terms, an alternating diagram with a1 + ... + am
+    # crossings that is minimal (Kauffman, Murasugi, Thistlethwaite 1987); S(p,q) up to
+    # q -> q^-1 and mirror (Schubert 1956). Here: the 2-component ones (p even), n crossings.
+    from fractions import Fraction
+
+    def compositions(k):
+        if k == 0:
+            yield ()
+            return
+        for a in range(1, k + 1):
+            for rest in compositions(k - a):
+                yield (a, *rest)
+
+    out = set()
+    for cf in compositions(n):
+        if cf[-1] < 2:
+            continue  # [..., a, 1] = [..., a + 1]
+        x = Fraction(cf[-1])
+        for a in reversed(cf[:-1]):
+            x = a + 1 / x
+        p, q = x.numerator, x.denominator % x.numerator
+        if p % 2 == 0:
+            qs = [q, pow(q, -1, p), -q % p, pow(-q % p, -1, p)]
+            out.add((p, min(qs)))
+    return out
+
+
+def test_two_component_links_against_linkinfo():
+    # source: LinkInfo via database-knotinfo (2-component links up to 7 crossings, braid
+    # notation, signature); the number of 2-bridge link types per crossing number comes
+    # from Conway's enumeration above. Every link that is not 2-bridge gets b >= 3, every
+    # 2-bridge one is left at 2, and the signature agrees with the table.
+    import re
+
+    from database_knotinfo import link_list
+    from plait.scoring import determinant
+
+    kept: dict[int, set[tuple[str, int]]] = {}
+    for row in link_list(proper_links=True)[1:]:
+        if row["components"] != "2" or int(row["crossing_number"]) > 7:
+            continue
+        m = re.fullmatch(r"\{(\d+),\{(.*)\}\}", row["braid_notation"].replace(" ", ""))
+        word = tuple(int(x) for x in m.group(2).split(","))
+        plat = ClosedBraid(int(m.group(1)), word).to_plat()
+        assert signature(plat) == int(row["signature"]), row["name"]
+        proved, why = not_two_bridge(plat)
+        if not proved:
+            kept.setdefault(int(row["crossing_number"]), set()).add(
+                (row["name"].split("{")[0], determinant(plat)))
+    for n in range(2, 8):
+        dets = sorted(d for _, d in kept.get(n, ()))
+        assert dets == sorted(p for p, _ in _two_bridge_link_classes(n)), n
