@@ -368,3 +368,21 @@ def test_two_component_links_against_linkinfo():
     for n in range(2, 8):
         dets = sorted(d for _, d in kept.get(n, ()))
         assert dets == sorted(p for p, _ in _two_bridge_link_classes(n)), n
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.lists(st.sampled_from([1, -1, 2, -2, 3, -3]), min_size=1, max_size=12),
+       st.sampled_from([1, -1]), st.data())
+def test_bound_sound_on_scrambled_two_bridge_plats(word, e, data):
+    # law: every 4-plat closes to a link with b <= 2, and a stabilization (Birman 1976:
+    # b -> b sigma_4^(+-1) on 6 strands) and pairing-subgroup multiplications on both
+    # sides (Hilden 1975) keep the link; the bound may never exceed 2 on the result
+    four = PlatWord(4, tuple(g for g in word if abs(g) < 4))
+    six = PlatWord(6, four.word + (4 * e,))
+    gens = _pairing_generators(6)
+    left = data.draw(st.lists(st.sampled_from(gens), max_size=2))
+    right = data.draw(st.lists(st.sampled_from(gens), max_size=2))
+    flip = data.draw(st.sampled_from([1, -1]))
+    scrambled = six.with_word(tuple(flip * g for w in left for g in w) + six.word
+                              + tuple(g for w in right for g in w))
+    assert bridge_lower_bound(scrambled).value <= 2
