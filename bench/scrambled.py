@@ -52,13 +52,14 @@ def _one(job: tuple) -> dict:
     row.update(result=[r.bridges, r.length], guard=res.guards == "passed",
                certificate=bool(moves.verify_certificate(res.certificate).ok),
                lower=res.lower, steps=res.steps, explored=res.explored)
-    # time to the final best: the last "best" event of the run's log
-    to_best = 0.0
+    # time to the final best: the first "best" event of the run's log with its score
+    to_best = None
     for line in (run_dir / "log.jsonl").read_text().splitlines():
         ev = json.loads(line)
-        if ev.get("event") == "best":
-            to_best = ev.get("elapsed", to_best)
-    row["to_best"] = to_best
+        if (ev.get("event") == "best" and to_best is None
+                and [ev["bridges"], ev["length"]] == row["result"]):
+            to_best = ev.get("found", ev.get("elapsed"))
+    row["to_best"] = to_best if to_best is not None else row["wall"]
     return row
 
 

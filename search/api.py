@@ -156,6 +156,7 @@ class _Run:
         self.last_best_write = 0.0
         self.last_checkpoint = 0.0
         self.best_dirty = False
+        self.best_found = 0.0       # elapsed seconds when the current best was found
         self.ctx: SearchContext | None = None
         self.strategy = None
 
@@ -186,6 +187,7 @@ class _Run:
                         time_budget=cfg["time"], steps_budget=cfg["steps"],
                         input=_plat_obj(self.start),
                         lower=lower)
+        self.best_dirty = True  # the first best.json, even if the start was canonical
         self._write_best(force=True)
         self._checkpoint("running")
 
@@ -218,19 +220,20 @@ class _Run:
     # -- best, guard, certificate ---------------------------------------------------------
     def _on_best(self, plat: PlatWord, node: int) -> None:
         self.best_dirty = True
+        self.best_found = self.elapsed()
 
     def _write_best(self, force: bool = False) -> None:
         """Guard the best (cheap fingerprint) and write best.json and the certificate."""
         ctx = self.ctx
         now = _time.monotonic()
-        if not (force or (self.best_dirty and now - self.last_best_write >= BEST_EVERY)):
+        if not self.best_dirty or (not force and now - self.last_best_write < BEST_EVERY):
             return
-        if ctx.best_node != self.verified_node or force:
-            self._check(ctx.best, ctx.best_node, "cheap", self.fp_cheap)
+        self._check(ctx.best, ctx.best_node, "cheap", self.fp_cheap)
         self.verified_node, self.verified_plat = ctx.best_node, ctx.best
         self._write_files(ctx.best, ctx.best_node, ctx.best_step)
         self.folder.log("best", bridges=ctx.best.bridges, length=ctx.best.length,
-                        step=ctx.best_step, elapsed=round(self.elapsed(), 3))
+                        step=ctx.best_step, found=round(self.best_found, 3),
+                        elapsed=round(self.elapsed(), 3))
         self.best_dirty = False
         self.last_best_write = now
 
@@ -245,7 +248,7 @@ class _Run:
         self.folder.write("best.json", {
             **_plat_obj(plat), "components": plat.components,
             "objective": self.config["objective"], "key": list(self.objective.key(plat)),
-            "step": step, "moves": len(records),
+            "step": step, "found": round(self.best_found, 3), "moves": len(records),
         })
 
     def _check(self, plat: PlatWord, node: int, level: str, before) -> None:
