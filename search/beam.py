@@ -31,6 +31,9 @@ class BeamParams:
         parent (isolating a pair often costs a few letters first).
     patience : int
         Generations without a new best before a restart from the best plat.
+    depth : int
+        Generations after which the beam restarts from the best plat even while it is
+        improving (0: no limit); bounds how far one beam drifts from the best.
     kick : int
         Random moves applied to each restart state (perturbation).
     visited_cap : int
@@ -49,6 +52,7 @@ class BeamParams:
     per_parent: int = 6
     slack: int = 3
     patience: int = 8
+    depth: int = 0
     kick: int = 6
     visited_cap: int = 20000
     lookahead: int = 6
@@ -86,12 +90,14 @@ class BeamSearch:
             self.generation = 0
             self.stale = 0
             self.restarts = 0
+            self.depth = 0
         else:
             self.beam = [(PlatWord(s, tuple(w)), node) for s, w, node in state["beam"]]
             self.visited = BoundedSet(self.p.visited_cap, state["visited"])
             self.generation = state["generation"]
             self.stale = state["stale"]
             self.restarts = state["restarts"]
+            self.depth = state.get("depth", 0)
 
     # -- checkpoint -------------------------------------------------------------------
     def live_nodes(self) -> list[int]:
@@ -105,6 +111,7 @@ class BeamSearch:
             "generation": self.generation,
             "stale": self.stale,
             "restarts": self.restarts,
+            "depth": self.depth,
         }
 
     # -- one generation ---------------------------------------------------------------
@@ -180,8 +187,10 @@ class BeamSearch:
         for p, _ in new_beam:
             self.visited.add(word_hash(p))
         self.generation += 1
+        self.depth += 1
         self.stale = 0 if ctx.improvements > improved_before else self.stale + 1
-        if not new_beam or self.stale >= self.p.patience:
+        if (not new_beam or self.stale >= self.p.patience
+                or (self.p.depth and self.depth >= self.p.depth)):
             self._restart()
         else:
             self.beam = new_beam
@@ -210,6 +219,7 @@ class BeamSearch:
         ctx = self.ctx
         self.restarts += 1
         self.stale = 0
+        self.depth = 0
         beam = [(ctx.best, ctx.best_node)]
         for _ in range(max(0, min(self.p.width, 4) - 1)):
             plat, node = ctx.best, ctx.best_node
