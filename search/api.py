@@ -293,7 +293,7 @@ class _Run:
             "strategy": self.strategy.state(),
             "paths": ctx.paths.to_json(live),
         }
-        self.folder.write("state.json", state)
+        self.folder.write("state.json", state, compact=True)
         self.last_checkpoint = _time.monotonic()
 
     # -- loop ----------------------------------------------------------------------------

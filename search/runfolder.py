@@ -8,7 +8,7 @@ import tempfile
 import time
 from pathlib import Path
 
-from plait.atomic import append_line_durable, write_json_atomic
+from plait.atomic import append_line_durable, write_json_atomic, write_text_atomic
 from plait.errors import InputError
 
 __all__ = ["RunFolder", "new_run_dir", "DEFAULT_RUNS", "STATE_FORMAT"]
@@ -84,8 +84,13 @@ class RunFolder:
                              f"(continue it with 'plait resume {self.path}')")
         self.path.mkdir(parents=True, exist_ok=True)
 
-    def write(self, name: str, obj: object) -> None:
-        write_json_atomic(self.path / name, obj)
+    def write(self, name: str, obj: object, compact: bool = False) -> None:
+        """Write ``name`` atomically: indented JSON, or one line when ``compact`` (the
+        large, machine-read state file)."""
+        if compact:
+            write_text_atomic(self.path / name, json.dumps(obj, separators=(",", ":")) + "\n")
+        else:
+            write_json_atomic(self.path / name, obj)
 
     def log(self, event: str, **fields) -> None:
         """Append one event to ``log.jsonl`` (durably)."""
