@@ -94,6 +94,11 @@ class Portfolio:
     With a step budget the phase boundaries are step counts (so the run is
     reproducible); with only a time budget they are seconds. Each phase starts from the
     overall best plat; the context keeps the best over all phases.
+
+    References
+    ----------
+    .. [1] B. A. Huberman, R. M. Lukose, T. Hogg, "An economics approach to hard
+       computational problems", Science 275 (1997): algorithm portfolios.
     """
 
     name = "auto"
