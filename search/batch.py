@@ -570,7 +570,7 @@ def _worker_init() -> None:
     signal.signal(signal.SIGINT, signal.SIG_IGN)
 
 
-def _run_local(tasks: Iterator[ItemTask], workers: int, item_fn, on_row, on_lost) -> None:
+def _run_local(tasks: Iterator[ItemTask], workers: int, item_fn, on_row, _on_lost) -> None:
     """Run tasks on a pool of ``workers`` processes, at most ``2 * workers`` in flight.
 
     When a worker process dies (out of memory, a crash in native code) the pool breaks
@@ -612,6 +612,11 @@ def _run_local(tasks: Iterator[ItemTask], workers: int, item_fn, on_row, on_lost
                     except BrokenProcessPool:
                         lost.append(t)
                         continue
+                    except (Exception, SystemExit) as exc:  # noqa: BLE001
+                        # raised outside the item function's own error handling (a
+                        # sys.exit in the item, a result that does not pickle)
+                        row = {"id": t.id, "line": t.line, "seed": t.seed, "elapsed": 0.0,
+                               "error": f"worker: {type(exc).__name__}: {exc}"}
                     on_row(row)
                 if lost:
                     lost.extend(inflight.values())
@@ -627,7 +632,6 @@ def _run_local(tasks: Iterator[ItemTask], workers: int, item_fn, on_row, on_lost
                     "error": "the worker process died while running this item"})
         else:
             suspects.extend(lost)
-    del on_lost  # a local pool loses no item silently: see the error row above
 
 
 def _stop_pool(ex: ProcessPoolExecutor) -> None:

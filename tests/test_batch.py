@@ -75,6 +75,8 @@ def toy_item(task: ItemTask) -> dict:
         raise ValueError("this item fails on purpose")
     if "crash" in task.id:
         os._exit(3)  # the worker process dies, as in an out-of-memory kill
+    if "exit" in task.id:
+        sys.exit(4)  # a BaseException that the item's own error handling lets through
     n = plat.bridges
     return {
         "result": {"strands": plat.strands, "word": word, "bridges": n, "length": len(word)},
@@ -255,12 +257,14 @@ def test_a_worker_that_dies_costs_only_its_own_item(tmp_path):
     ids = write_input(src, 6)
     with open(src, "a") as fh:
         fh.write(json.dumps({"id": "crash-1", "plat": [1, 2, -2]}) + "\n")
+        fh.write(json.dumps({"id": "exit-1", "plat": [1, 2, -2]}) + "\n")
     out = tmp_path / "out"
     run_batch(src, out, steps=30, workers=2, quiet=True, item_fn=toy_item)
     rows = {r["id"]: r for r in read_rows(out / "results.jsonl")}
-    assert sorted(rows) == sorted(ids + ["crash-1"])
+    assert sorted(rows) == sorted(ids + ["crash-1", "exit-1"])
     assert "died" in rows["crash-1"]["error"]
-    assert not any(r["error"] for k, r in rows.items() if k != "crash-1")
+    assert rows["exit-1"]["error"] == "worker: SystemExit: 4"
+    assert not any(r["error"] for k, r in rows.items() if k not in ("crash-1", "exit-1"))
 
 
 def test_one_writer_per_folder(tmp_path):
