@@ -41,6 +41,20 @@ def test_torus_knots_from_braids(tmp_path):
         assert r.upper == p and r.lower <= p
 
 
+def test_connected_sums(tmp_path):
+    # Schubert 1954: b(K1 # K2) = b(K1) + b(K2) - 1 is the upper bound for the banded
+    # diagram of two table knots
+    # source: KnotInfo via database-knotinfo (pd_notation, bridge_index)
+    from test_fromdiagram import _connected_sum
+
+    for a, b in (("3_1", "4_1"), ("8_19", "3_1")):
+        ka, kb = knot(a), knot(b)
+        pd = _connected_sum(validate_pd(ka.pd), validate_pd(kb.pd))
+        r = bridge_report(pd, steps=0, run_dir=tmp_path / f"{a}_{b}", handle_signals=False)
+        assert r.upper == ka.bridge_index + kb.bridge_index - 1
+        assert r.lower <= r.upper
+
+
 def test_cli_json_contract(tmp_path, capsys):
     # the JSON object of plait reduce --json, with both bounds and the Wirtinger seeds
     # source: KnotInfo via database-knotinfo (8_19 bridge_index = 3)
