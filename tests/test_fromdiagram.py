@@ -23,7 +23,7 @@ from plait.pdjones import (
     plat_jones,
     plat_jones_all_orientations,
 )
-from plait.vogel import seifert_circles
+from plait.vogel import pd_to_closed_braid, seifert_circles
 from plait.wirtinger import occurrence_roles, wirtinger
 from plait.word import ClosedBraid, PlatWord
 
@@ -206,6 +206,13 @@ def test_vogel_route():
         # the closed braid has one strand per Seifert circle of the diagram (Vogel 1990)
         assert d.plat.bridges == len(set(seifert_circles(
             [list(c) for c in k.pd], occurrence_roles(validate_pd(k.pd))).values()))
+    # links: the closed braid's plat has LinkInfo's Jones polynomial for some orientation
+    # of its components (the plat orients each component from its first cap)
+    # source: LinkInfo via database-knotinfo (pd_notation_vector, jones_polynomial)
+    for name, _comps, pd, jones in _linkinfo(6):
+        braid = pd_to_closed_braid(pd)
+        assert plat_jones(braid.to_plat()) in pd_jones_all_orientations(pd), name
+        assert jones == pd_jones(pd)
 
 
 def test_component_that_never_passes_under():
