@@ -86,7 +86,8 @@ def _diagram_bound(pd: PDCode, time_limit: float, what: str):
     return d.plat, w, (
         f"{what} has Wirtinger number {w.number} ({proven}; seeds are arcs "
         f"{', '.join(str(list(w.arcs.arcs[a])) for a in w.seeds)}); its bridge position "
-        f"gives a plat with {d.plat.bridges} bridges (Blair–Kjuchukova–Ozawa: the "
+        f"gives a plat with {d.plat.bridges} bridge{'s' * (d.plat.bridges != 1)} "
+        f"(Blair–Kjuchukova–Ozawa: the "
         f"Wirtinger number of a diagram is its perpendicular bridge number)")
 
 
