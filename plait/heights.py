@@ -183,7 +183,6 @@ def lift(pd: PDCode, wirt: Wirtinger, pos: dict | None = None) -> Lift:
             z[q] = -B
             arc_z.append(z)
             continue
-        z = [0] * (L + 1)
         st = colored_by.get(a)
         if st is None:
             p = L // 2
