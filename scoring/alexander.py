@@ -227,9 +227,7 @@ def fox_coloring_dimension(plat: PlatWord, p: int) -> int:
 
 def _to_field_rows(M: list[list[dict]], p: int | None) -> list[list[list]]:
     # Rows shifted to nonnegative exponents (a unit), entries as coefficient lists over
-    # F_p (ints mod p) or Q (Fractions), lowest degree first.
-    from fractions import Fraction
-
+    # F_p (ints mod p) or over Z standing for Q (p = None), lowest degree first.
     out = []
     for row in M:
         exps = [e for q in row for e in q]
@@ -241,7 +239,7 @@ def _to_field_rows(M: list[list[dict]], p: int | None) -> list[list[list]]:
                 continue
             coeffs = [0] * (max(q) - lo + 1)
             for e, c in q.items():
-                coeffs[e - lo] = c % p if p else Fraction(c)
+                coeffs[e - lo] = c % p if p else c
             new.append(lp._trim(coeffs))
         out.append(new)
     return out
@@ -281,19 +279,100 @@ def _psub(a: list, b: list, p: int | None) -> list:
     return lp._trim(out)
 
 
+def _content(polys: list[list]) -> int:
+    from math import gcd
+
+    g = 0
+    for q in polys:
+        for c in q:
+            g = gcd(g, c)
+            if g == 1:
+                return 1
+    return g
+
+
+def _pseudo_divmod(a: list, b: list) -> tuple[int, list, list]:
+    # Integer pseudo-division: returns (s, q, r) with s * a = q * b + r, deg r < deg b,
+    # s a power of the leading coefficient of b.
+    lc = b[-1]
+    n = len(a) - len(b) + 1
+    if n <= 0:
+        return 1, [], list(a)
+    q = [0] * n
+    r = list(a)
+    s = 1
+    for k in reversed(range(n)):
+        c = r[k + len(b) - 1]
+        if c == 0:
+            continue
+        if lc != 1:
+            r = [x * lc for x in r]
+            q = [x * lc for x in q]
+            s *= lc
+        q[k] += c
+        for i, bi in enumerate(b):
+            r[k + i] -= c * bi
+    return s, q, lp._trim(r)
+
+
+def _reduce(a: list, b: list, p: int | None) -> tuple[int, list]:
+    # (s, q) with s * a - q * b of lower degree than b; s = 1 over F_p
+    if p:
+        q, _ = lp.poly_divmod_field(a, b, p)
+        return 1, q
+    s, q, _ = _pseudo_divmod(a, b)
+    return s, q
+
+
+def _scale(a: list, s: int, p: int | None) -> list:
+    if s == 1:
+        return a
+    return lp._trim([(x * s) % p if p else x * s for x in a])
+
+
+def _primitive(polys: list[list]) -> list[list]:
+    g = _content(polys)
+    if g in (0, 1):
+        return polys
+    return [[x // g for x in q] for q in polys]
+
+
+def _zgcd(a: list, b: list) -> list:
+    # gcd in Q[t] as a primitive integer polynomial (primitive remainder sequence)
+    a, b = _primitive([a])[0], _primitive([b])[0]
+    if len(a) < len(b):
+        a, b = b, a
+    while b:
+        _, _, r = _pseudo_divmod(a, b)
+        a, b = b, (_primitive([r])[0] if r else [])
+    return a
+
+
+def _zexact_div(a: list, b: list) -> list:
+    # a / b in Q[t] scaled to a primitive integer polynomial
+    s, q, r = _pseudo_divmod(a, b)
+    if r:
+        raise ArithmeticError("inexact division")
+    return _primitive([q])[0]
+
+
 def invariant_factor_count(M: list[list[dict]], p: int | None) -> int:
     """Number of non-unit invariant factors (zeros included) of a square Laurent matrix
     over ``F_p[t, t^-1]`` (``p`` prime) or ``Q[t, t^-1]`` (``p = None``).
 
     Smith normal form by Euclidean row and column operations over ``F[t]`` (rows first
-    shifted to nonnegative exponents); the diagonal is brought to a divisibility chain by
-    replacing pairs with their gcd and lcm. Localising at ``t`` keeps the chain, so an
-    invariant factor is a unit of ``F[t, t^-1]`` exactly when it is ``c * t^k``.
+    shifted to nonnegative exponents); over ``Q`` the operations are fraction-free
+    (pseudo-division, then each row or column divided by its content; nonzero integers
+    are units of ``Q[t]``). The diagonal is brought to a divisibility chain by replacing
+    pairs with their gcd and lcm. Localising at ``t`` keeps the chain, so an invariant
+    factor is a unit of ``F[t, t^-1]`` exactly when it is ``c * t^k``.
 
     References
     ----------
     .. [1] H. J. S. Smith, "On systems of linear indeterminate equations and
        congruences", Phil. Trans. R. Soc. 151 (1861).
+    .. [2] G. E. Collins, "Subresultants and reduced polynomial remainder sequences",
+       J. ACM 14 (1967): primitive remainder sequences.
     """
     A = _to_field_rows(M, p)
     size = len(A)
@@ -311,15 +390,21 @@ def invariant_factor_count(M: list[list[dict]], p: int | None) -> int:
             changed = False
             for i in range(1, len(A)):
                 if A[i][0]:
-                    q, _r = lp.poly_divmod_field(A[i][0], piv, p)
-                    A[i] = [_psub(x, _pmul(q, y, p), p) for x, y in zip(A[i], A[0], strict=True)]
+                    s, q = _reduce(A[i][0], piv, p)
+                    A[i] = [_psub(_scale(x, s, p), _pmul(q, y, p), p)
+                            for x, y in zip(A[i], A[0], strict=True)]
+                    if p is None:
+                        A[i] = _primitive(A[i])
                     if A[i][0]:
                         changed = True
             for j in range(1, len(A[0])):
                 if A[0][j]:
-                    q, _r = lp.poly_divmod_field(A[0][j], piv, p)
-                    for row in A:
-                        row[j] = _psub(row[j], _pmul(q, row[0], p), p)
+                    s, q = _reduce(A[0][j], piv, p)
+                    col = [_psub(_scale(row[j], s, p), _pmul(q, row[0], p), p) for row in A]
+                    if p is None:
+                        col = _primitive(col)
+                    for row, x in zip(A, col, strict=True):
+                        row[j] = x
                     if A[0][j]:
                         changed = True
             if not changed:
@@ -337,12 +422,15 @@ def invariant_factor_count(M: list[list[dict]], p: int | None) -> int:
     for i in range(r):
         for j in range(i + 1, r):
             a, b = diag[i], diag[j]
-            g = lp.poly_gcd_field(a, b, p)
+            g = lp.poly_gcd_field(a, b, p) if p else _zgcd(a, b)
             if len(g) == len(a):
                 continue
             prod = _pmul(a, b, p)
-            lcm, _ = lp.poly_divmod_field(prod, g, p)
-            diag[i], diag[j] = g, lp._trim(lcm)
+            if p:
+                lcm = lp._trim(lp.poly_divmod_field(prod, g, p)[0])
+            else:
+                lcm = _zexact_div(prod, g)
+            diag[i], diag[j] = g, lcm
     units = sum(1 for d in diag if _is_unit(d))
     return size - units
 
@@ -361,12 +449,24 @@ def _small_prime_factors(m: int, limit: int = 10_000) -> list[int]:
     return out
 
 
+# A large prime always used besides 2, 3, 5, 7: if the gcd g of the k-minors over Q is
+# not a unit, its primitive part reduced mod p still divides every k-minor and keeps its
+# degree unless p divides its first or last coefficient, so F_p usually sees what Q sees.
+LARGE_PRIME = 2_147_483_647
+# Q[t, t^-1] is used only when every entry of the matrix spans at most this many
+# powers of t: Euclid over the rationals swells the coefficients on long words.
+Q_MAX_SPAN = 12
+
+
 def module_bound_rings(plat: PlatWord) -> list[int | None]:
     """The coefficient fields used by :func:`nakanishi_lower_bound`: the primes 2, 3, 5, 7,
-    the primes dividing the determinant (found by trial division up to 10^4), and
-    ``None`` for the rationals."""
-    primes = {2, 3, 5, 7} | set(_small_prime_factors(determinant(plat)))
-    return sorted(primes) + [None]
+    the primes dividing the determinant (found by trial division up to 10^4), the prime
+    ``2^31 - 1``, and ``None`` for the rationals when every matrix entry spans at most
+    :data:`Q_MAX_SPAN` powers of ``t``."""
+    primes = {2, 3, 5, 7, LARGE_PRIME} | set(_small_prime_factors(determinant(plat)))
+    M = alexander_matrix(plat)
+    small = all(lp.span(q) <= Q_MAX_SPAN for row in M for q in row)
+    return sorted(primes) + ([None] if small else [])
 
 
 def nakanishi_lower_bound(plat: PlatWord) -> tuple[int, str]:
@@ -399,6 +499,6 @@ def nakanishi_lower_bound(plat: PlatWord) -> tuple[int, str]:
     ring = "Q[t,t^-1]" if best_ring is None else f"F_{best_ring}[t,t^-1]"
     if best == 0:
         return 0, "every invariant factor of the Alexander matrix is a unit over " \
-                  "F_p[t,t^-1] (p = 2, 3, 5, 7 and primes dividing det) and Q[t,t^-1]"
+                  "F_p[t,t^-1] (p = 2, 3, 5, 7, 2^31-1 and primes dividing det) and Q[t,t^-1]"
     return best, (f"Alexander module over {ring} has {best} non-unit invariant "
                   f"factor{'s' if best != 1 else ''} besides the free summand")

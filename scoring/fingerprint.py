@@ -20,10 +20,15 @@ from plait.scoring.orientation import linking_matrix
 from plait.errors import GuardViolation, InputError
 from plait.word import PlatWord
 
-__all__ = ["Fingerprint", "fingerprint", "guard", "same_up_to_mirror", "LEVELS", "FOX_PRIMES"]
+__all__ = [
+    "Fingerprint", "fingerprint", "guard", "same_up_to_mirror", "LEVELS", "FOX_PRIMES",
+    "CHEAP_JONES_BRIDGES",
+]
 
 LEVELS = ("cheap", "full")
 FOX_PRIMES = (3, 5, 7)
+# The cheap level computes Jones up to this many bridges (Catalan(8) = 1430 states).
+CHEAP_JONES_BRIDGES = 8
 
 
 @dataclass(frozen=True)
@@ -126,9 +131,10 @@ def fingerprint(plat: PlatWord, level: str = "cheap") -> Fingerprint:
     level : {"cheap", "full"}
         ``"cheap"``: components, linking matrix, determinant and Jones polynomial (all
         linear in the word length for a fixed number of bridges; Jones is skipped above
-        :data:`scoring.jones.MAX_JONES_BRIDGES` bridges). ``"full"`` adds the Alexander
-        polynomial, Fox 3-, 5- and 7-coloring dimensions and the Alexander-module
-        invariant factor counts.
+        :data:`CHEAP_JONES_BRIDGES` bridges, and above
+        :data:`plait.scoring.jones.MAX_JONES_BRIDGES` at the full level). ``"full"``
+        adds the Alexander polynomial, Fox 3-, 5- and 7-coloring dimensions and the
+        Alexander-module invariant factor counts.
 
     Returns
     -------
@@ -141,7 +147,8 @@ def fingerprint(plat: PlatWord, level: str = "cheap") -> Fingerprint:
         "components": plat.components,
         "linking": linking_matrix(plat),
         "determinant": determinant(plat),
-        "jones": jones(plat) if plat.bridges <= MAX_JONES_BRIDGES else None,
+        "jones": jones(plat) if plat.bridges <= (
+            CHEAP_JONES_BRIDGES if level == "cheap" else MAX_JONES_BRIDGES) else None,
     }
     if level == "full":
         kw["alexander"] = alexander(plat)

@@ -316,3 +316,23 @@ def test_bad_input():
         jones(PlatWord(2 * (MAX_JONES_BRIDGES + 1), ()))
     with pytest.raises(InputError):
         Fingerprint.from_json({"level": "cheap"})
+
+
+@pytest.mark.parametrize("n,length,seed", [(3, 700, 1), (4, 600, 2), (5, 400, 3)])
+def test_long_words_with_huge_coefficients(n, length, seed):
+    # Long random words drive the state vector past int64 (exact limbs must carry).
+    # Published evaluations: V_L(1) = (-2)^(c-1) (Jones 1985) and |V_L(-1)| = det(L) with
+    # t^(1/2) = i (common practice), the latter computed independently from Fox colorings.
+    import random
+
+    rnd = random.Random(seed)
+    p = PlatWord(2 * n, tuple(rnd.choice((1, -1)) * rnd.randint(1, 2 * n - 1)
+                              for _ in range(length)))
+    v = jones(p)
+    assert max(abs(c) for c in v.values()) > 2 ** 62
+    assert sum(v.values()) == (-2) ** (p.components - 1)
+    # t^e = i^(2e): exact real and imaginary parts
+    re = sum(c * (1, 0, -1, 0)[int(2 * e) % 4] for e, c in v.items())
+    im = sum(c * (0, 1, 0, -1)[int(2 * e) % 4] for e, c in v.items())
+    assert re == 0 or im == 0
+    assert abs(re) + abs(im) == determinant(p)
