@@ -65,14 +65,16 @@ def _alexander_matrix(strands: int, word: tuple[int, ...]) -> tuple[tuple[dict, 
     n = plat.bridges
     L = len(word)
     tr = trace(plat)
-    D = 2 * L + 1  # exponent e lives in column e + L
-    C = np.zeros((strands, n, D), dtype=np.int64)
+    # C[r, j, c]: coefficient of t^(c - off) x_j in the color held by slot r; the window
+    # of columns triples when the exponents in use [lo - off, hi - off] reach its edge.
+    off = min(L, 32)
+    C = np.zeros((strands, n, 2 * off + 1), dtype=np.int64)
     for j in range(n):
-        C[2 * j, j, L] = 1
-        C[2 * j + 1, j, L] = 1
+        C[2 * j, j, off] = 1
+        C[2 * j + 1, j, off] = 1
     bound = [1] * strands  # bound on |entries| of each slot
     slot = list(range(strands))  # slot[p] = row of C holding the color at position p
-    lo = hi = L  # columns in use
+    lo = hi = off  # columns in use
     for j, g in enumerate(word):
         a = abs(g) - 1
         if g > 0:  # the strand entering at a+1 passes over and leaves at a
@@ -89,6 +91,12 @@ def _alexander_matrix(strands: int, word: tuple[int, ...]) -> tuple[tuple[dict, 
             if new_bound >= _INT64_SAFE:
                 C = C.astype(object)
         nlo, nhi = min(lo, lo + s), max(hi, hi + s)
+        if nlo < 0 or nhi >= C.shape[2]:
+            W = C.shape[2]
+            wider = np.zeros((strands, n, 3 * W), dtype=C.dtype)
+            wider[:, :, W:2 * W] = C
+            C = wider
+            off, lo, hi, nlo, nhi = off + W, lo + W, hi + W, nlo + W, nhi + W
         diff = C[un, :, lo:hi + 1] - C[ov, :, lo:hi + 1]
         res = C[ov, :, nlo:nhi + 1].copy()
         res[:, lo + s - nlo:hi + s - nlo + 1] += diff
@@ -98,7 +106,7 @@ def _alexander_matrix(strands: int, word: tuple[int, ...]) -> tuple[tuple[dict, 
     rows = []
     for i in range(n):
         d = (C[slot[2 * i], :, lo:hi + 1] - C[slot[2 * i + 1], :, lo:hi + 1]).tolist()
-        rows.append(tuple({lo - L + e: int(c) for e, c in enumerate(col) if c} for col in d))
+        rows.append(tuple({lo - off + e: int(c) for e, c in enumerate(col) if c} for col in d))
     return tuple(rows)
 
 
