@@ -336,3 +336,51 @@ def test_long_words_with_huge_coefficients(n, length, seed):
     im = sum(c * (0, 1, 0, -1)[int(2 * e) % 4] for e, c in v.items())
     assert re == 0 or im == 0
     assert abs(re) + abs(im) == determinant(p)
+
+
+@settings(max_examples=40, deadline=None)
+@given(plats(max_bridges=3, max_len=12), st.sampled_from([1, -1]))
+def test_invariants_unchanged_by_stabilization(p, e):
+    # Birman 1976: b on 2n strands and b sigma_2n^(+-1) on 2n + 2 strands have the same
+    # plat closure
+    q = PlatWord(p.strands + 2, p.word + (e * p.strands,))
+    guard(fingerprint(p, "full"), fingerprint(q, "full"), detail="stabilization")
+    if p.components == 1:
+        assert jones(q) == jones(p)
+        assert alexander(q) == alexander(p)
+    assert [fox_coloring_dimension(q, r) for r in (3, 5)] == \
+        [fox_coloring_dimension(p, r) for r in (3, 5)]
+
+
+@pytest.mark.parametrize("name", ["3_1", "5_2", "6_3", "7_7", "8_18", "9_35", "10_132"])
+def test_table_knots_under_pairing_subgroup(name):
+    # Hilden 1975 / Birman 1976: multiplying by pairing-subgroup elements on both sides
+    # keeps the closure; source: KnotInfo via database-knotinfo for the braids
+    import random
+
+    row = knot(name)
+    p = ClosedBraid.from_word(row.braid).to_plat()
+    gens = pairing_generators(p.bridges)
+    rnd = random.Random(name)
+    for _ in range(3):
+        h1 = [x for _ in range(4) for x in rnd.choice(gens)]
+        h2 = [-x for _ in range(4) for x in reversed(rnd.choice(gens))]
+        q = PlatWord(p.strands, tuple(h1) + p.word + tuple(h2))
+        assert jones(q) == row.jones
+        assert alexander(q) == alexander(p)
+        assert determinant(q) == row.determinant
+        assert fingerprint(q, "full").module == fingerprint(p, "full").module
+
+
+@pytest.mark.parametrize("k1,k2", [("3_1", "3_1"), ("3_1", "6_1"), ("4_1", "5_1"),
+                                   ("8_18", "3_1")])
+def test_connected_sum_fox_dimensions(k1, k2):
+    # the double branched cover of K1 # K2 is the connected sum of the covers, so the
+    # nontrivial Fox p-colorings add: dim(K1 # K2) - 1 = (dim K1 - 1) + (dim K2 - 1)
+    # (Crowell-Fox 1963; common practice). source: KnotInfo via database-knotinfo
+    a = ClosedBraid.from_word(knot(k1).braid).to_plat()
+    b = ClosedBraid.from_word(knot(k2).braid).to_plat()
+    s = connected_sum(a, b)
+    for r in (3, 5, 7):
+        assert fox_coloring_dimension(s, r) - 1 == \
+            (fox_coloring_dimension(a, r) - 1) + (fox_coloring_dimension(b, r) - 1)
