@@ -384,3 +384,48 @@ def test_connected_sum_fox_dimensions(k1, k2):
     for r in (3, 5, 7):
         assert fox_coloring_dimension(s, r) - 1 == \
             (fox_coloring_dimension(a, r) - 1) + (fox_coloring_dimension(b, r) - 1)
+
+
+@st.composite
+def laurent_matrices(draw):
+    n = draw(st.integers(1, 3))
+    entry = st.dictionaries(st.integers(-2, 2), st.integers(-3, 3), max_size=3)
+    return [[{e: c for e, c in draw(entry).items() if c} for _ in range(n)] for _ in range(n)]
+
+
+@settings(max_examples=80, deadline=None)
+@given(laurent_matrices(), st.sampled_from([2, 3, 5, None]))
+def test_invariant_factor_count_by_determinantal_divisors(M, p):
+    # Smith 1861: over a PID the first k invariant factors are units exactly when the
+    # gcd of all k x k minors is a unit; count them from the minors directly
+    from itertools import combinations
+
+    from plait.scoring.alexander import invariant_factor_count
+
+    n = len(M)
+
+    def as_list(q):  # Laurent -> coefficients over F_p or Q with t-factors removed
+        if not q:
+            return []
+        lo = min(q)
+        out = [0] * (max(q) - lo + 1)
+        for e, c in q.items():
+            out[e - lo] = c % p if p else Fraction(c)
+        while out and out[-1] == 0:
+            out.pop()
+        while out and out[0] == 0:
+            out.pop(0)
+        return out
+
+    units = 0
+    for k in range(1, n + 1):
+        g: list = []
+        for rows in combinations(range(n), k):
+            for cols in combinations(range(n), k):
+                m = as_list(lp.det([[M[r][c] for c in cols] for r in rows]))
+                g = lp.poly_gcd_field(g, m, p) if g else lp.poly_gcd_field(m, m, p)
+        if len(g) == 1:
+            units = k
+        else:
+            break
+    assert invariant_factor_count(M, p) == n - units
