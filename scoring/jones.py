@@ -116,9 +116,9 @@ def _space(n: int) -> _Space:
                         np.array([p[1] for p in pairs], dtype=np.intp)))
         loops.append(is_loop)
         layers.append(tuple(lay))
-        # the targets of e_k are the loop states: each gets its id term, two loop terms
-        # and at most `depth` incoming terms
-        growth.append(3 + depth)
+        # the targets of e_k are the loop states: each keeps its (kink-factor) term and
+        # gets at most `depth` incoming terms
+        growth.append(1 + depth)
     cup_loops = np.array([_count_cup_loops(s) for s in states], dtype=np.int64)
     return _Space(n, tuple(states), start, tuple(loops), tuple(layers), tuple(growth),
                   cup_loops)
@@ -170,12 +170,14 @@ def bracket(plat: PlatWord) -> dict[int, int]:
 
     Notes
     -----
-    Cost is ``O(length * Catalan(n) * width)`` with ``width`` the spread of exponents,
-    linear in the word length for fixed ``n``. Polynomials are stored as rows of an
-    integer array whose column ``c`` holds exponent ``lo + 2c`` (after ``j`` letters all
-    exponents have the parity of ``j``). Large coefficients are split into int64 limbs
-    of 32 bits, carried whenever a bound on the entries nears 2^62, so the arithmetic is
-    exact and stays vectorised.
+    Cost is ``O(length * Catalan(n) * width * limbs)`` with ``width`` the spread of
+    exponents: linear in the word length for fixed ``n`` and bounded polynomials. The
+    factor ``A^(sum of letter signs)`` is kept aside, so a letter leaves the states whose
+    two points are not yet joined unchanged, multiplies those already joined by the kink
+    factor ``-A^(-4 eps)`` and adds ``A^(-2 eps)`` times the images under ``e_k``: every
+    update is in place on one integer array whose column ``c`` holds an even relative
+    exponent. Large coefficients are split into int64 limbs of 32 bits, carried whenever a
+    bound on the entries nears 2^62, so the arithmetic is exact and stays vectorised.
 
     References
     ----------
@@ -189,46 +191,52 @@ def bracket(plat: PlatWord) -> dict[int, int]:
                          f"for the Temperley-Lieb state vector")
     sp = _space(n)
     S = len(sp.states)
-    # V[k, s, c]: limb k of the coefficient of A^(lo + 2c) in state s; the coefficient
+    # The common factor A^(sum of letter signs) is kept aside, so the id term of a letter
+    # leaves a state alone. Relative to it, e_k multiplies by A^(-2 eps) and a state whose
+    # points k, k+1 are already joined is multiplied by A^(-eps) d / A^eps + 1 = -A^(-4 eps)
+    # (the kink factor). Every relative exponent is even.
+    # V[k, s, c]: limb k of the coefficient of A^(2 (c - off)) in state s; the coefficient
     # is sum_k V[k, s, c] * 2^(32 k). All operations are additions, so limbs are added
-    # independently and carried only when a bound on |entries| nears 2^62.
-    V = np.zeros((1, S, 1), dtype=np.int64)
-    V[0, sp.start, 0] = 1
-    lo = 0
+    # independently and carried only when a bound on |entries| nears 2^62. Columns
+    # clo..chi-1 are live; the buffer is re-centred when they reach its edges.
+    width = 64
+    V = np.zeros((1, S, width), dtype=np.int64)
+    off = clo = width // 2
+    chi = clo + 1
+    V[0, sp.start, off] = 1
+    total_eps = 0
     bound = 1  # bound on max |entry| of V
-    for g in plat.word:
+    for j, g in enumerate(plat.word):
         k = abs(g)
         eps = 1 if g > 0 else -1
+        total_eps += eps
         growth = sp.growth[k]
         if bound * growth >= _INT64_SAFE:
             V, bound = _carry(V)
-        K, _, W = V.shape
-        N = np.zeros((K, S, W + 2), dtype=np.int64)
-        # new column c' holds exponent lo' + 2c'; lo' = lo - 3 (eps = 1) or lo - 1
-        # (eps = -1). id term A^eps lands at offset 2 or 0, e_k term A^-eps at offset 1,
-        # and a closed loop gives A^-eps d = -A^(2-eps) - A^(-2-eps) at offsets 2 and 0.
-        if eps == 1:
-            N[:, :, 2:] += V
-            lo -= 3
-        else:
-            N[:, :, :W] += V
-            lo -= 1
+        if clo < 2 or chi + 2 > V.shape[2] or (j & 31) == 31:
+            V, off, clo, chi = _recentre(V, off, clo, chi)
+            if V is None:
+                return {}
         lp = sp.loop[k]
-        VL = V[:, lp]
-        N[:, lp, :W] -= VL
-        N[:, lp, 2:] -= VL
-        for src, dst in sp.layers[k]:
-            N[:, dst, 1:W + 1] += V[:, src]
+        VL = V[:, lp, clo:chi]
+        if eps == 1:  # loop states: new[c] = -old[c + 2]
+            V[:, lp, chi - 2:chi] = 0
+            V[:, lp, clo - 2:chi - 2] = -VL
+            for src, dst in sp.layers[k]:
+                V[:, dst, clo - 1:chi - 1] += V[:, src, clo:chi]
+            clo -= 2
+        else:  # loop states: new[c] = -old[c - 2]
+            V[:, lp, clo:clo + 2] = 0
+            V[:, lp, clo + 2:chi + 2] = -VL
+            for src, dst in sp.layers[k]:
+                V[:, dst, clo + 1:chi + 1] += V[:, src, clo:chi]
+            chi += 2
         bound *= growth
-        # drop all-zero columns at both ends
-        nz = np.flatnonzero(N.any(axis=(0, 1)))
-        if len(nz) == 0:
-            return {}
-        a, b = int(nz[0]), int(nz[-1]) + 1
-        if a or b < N.shape[2]:
-            N = N[:, :, a:b]
-            lo += 2 * a
-        V = N
+    V, off, clo, chi = _recentre(V, off, clo, chi)
+    if V is None:
+        return {}
+    lo = total_eps + 2 * (clo - off)
+    V = V[:, :, clo:chi]
     # combine the limbs into Python integers
     X = V[0].astype(object)
     for k in range(1, V.shape[0]):
@@ -248,6 +256,24 @@ def bracket(plat: PlatWord) -> dict[int, int]:
 
 _LIMB = 32
 _TOP_SPLIT = 1 << 40
+
+
+def _recentre(V: np.ndarray, off: int, clo: int, chi: int):
+    # Trim all-zero columns from the live window and place it in the middle of a buffer
+    # with room to grow. Returns (None, ...) when the vector is zero.
+    nz = np.flatnonzero(V[:, :, clo:chi].any(axis=(0, 1)))
+    if len(nz) == 0:
+        return None, off, clo, chi
+    a, b = clo + int(nz[0]), clo + int(nz[-1]) + 1
+    live = b - a
+    width = max(64, 2 * live + 64)
+    if width <= V.shape[2] and a >= 2 and b + 2 <= V.shape[2] and \
+            min(a, V.shape[2] - b) >= (V.shape[2] - live) // 4:
+        return V, off, a, b  # enough room on both sides already
+    W = np.zeros((V.shape[0], V.shape[1], width), dtype=np.int64)
+    start = (width - live) // 2
+    W[:, :, start:start + live] = V[:, :, a:b]
+    return W, off + start - a, start, start + live
 
 
 def _carry(V: np.ndarray) -> tuple[np.ndarray, int]:
