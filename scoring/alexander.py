@@ -8,6 +8,7 @@ import numpy as np
 from plait.scoring import laurent as lp
 from plait.scoring.orientation import trace
 
+from plait.errors import InputError
 from plait.word import PlatWord
 
 __all__ = [
@@ -226,7 +227,15 @@ def fox_coloring_dimension(plat: PlatWord, p: int) -> int:
     References
     ----------
     .. [1] R. H. Crowell and R. H. Fox, "Introduction to Knot Theory" (1963).
+
+    Raises
+    ------
+    InputError
+        When ``p`` is not a prime.
     """
+    if isinstance(p, bool) or not isinstance(p, int) or p < 2 or \
+            any(p % d == 0 for d in range(2, int(p ** 0.5) + 1)):
+        raise InputError(f"fox colorings: p must be a prime, got {p!r}")
     return nullity_mod_p(fox_matrix(plat), p)
 
 

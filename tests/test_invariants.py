@@ -316,6 +316,9 @@ def test_bad_input():
         jones(PlatWord(2 * (MAX_JONES_BRIDGES + 1), ()))
     with pytest.raises(InputError):
         Fingerprint.from_json({"level": "cheap"})
+    for bad in (1, 4, 9, 0, -3):
+        with pytest.raises(InputError):
+            fox_coloring_dimension(PlatWord(4, (2, 2)), bad)
 
 
 @pytest.mark.parametrize("n,length,seed", [(3, 700, 1), (4, 600, 2), (5, 400, 3)])
