@@ -137,6 +137,7 @@ class ItemTask:
     time: float | None
     strategy: str
     bridge: bool
+    options: dict | None = None
 
 
 def _resumable(run_dir: Path) -> bool:
@@ -169,7 +170,8 @@ def search_item(task: ItemTask) -> dict:
             # killed before the run's first checkpoint (no state.json yet): start afresh
             _clear_folder(run_dir)
     res = reduce(pres, strategy=task.strategy, time=task.time, steps=task.steps,
-                 seed=task.seed, run_dir=run_dir, quiet=True, handle_signals=False)
+                 seed=task.seed, run_dir=run_dir, quiet=True, handle_signals=False,
+                 **(task.options or {}))
     return res.to_json()
 
 
@@ -493,7 +495,7 @@ class _FolderLock:
 
 
 def _config(out: Path, input_path: Path | None, *, seed, steps, time_budget, strategy, bridge,
-            shard, resume: bool) -> tuple[dict, list[BatchItem]]:
+            shard, search_options, resume: bool) -> tuple[dict, list[BatchItem]]:
     """Create (new batch) or load and check (``resume``) ``DIR/batch.json``."""
     cfg_path = out / CONFIG_FILE
     if not resume:
@@ -513,6 +515,7 @@ def _config(out: Path, input_path: Path | None, *, seed, steps, time_budget, str
             "steps": steps,
             "time": time_budget,
             "strategy": strategy or "auto",
+            "search_options": search_options or None,
             "bridge": bool(bridge),
             "shard": None if shard is None else list(shard),
             "items_total": len(items),
@@ -531,7 +534,8 @@ def _config(out: Path, input_path: Path | None, *, seed, steps, time_budget, str
     if cfg.get("merged_from") is not None:
         raise InputError(f"{out} holds merged shards; resume the shard folders instead")
     given = {"seed": seed, "steps": steps, "time": time_budget, "strategy": strategy,
-             "bridge": bridge or None, "shard": None if shard is None else list(shard)}
+             "bridge": bridge or None, "shard": None if shard is None else list(shard),
+             "search_options": search_options or None}
     for key, val in given.items():
         if val is not None and val != cfg.get(key):
             raise InputError(f"--resume: --{key} {val} differs from the batch's "
@@ -695,7 +699,7 @@ def run_batch(input_path: str | os.PathLike | None, out: str | os.PathLike, *,
               seed: int | None = None, steps: int | None = None, time: float | None = None,
               strategy: str | None = None, bridge: bool = False, workers: int | None = None,
               shard: tuple[int, int] | str | None = None, resume: bool = False,
-              dask: object = None, quiet: bool = False,
+              dask: object = None, quiet: bool = False, search_options: dict | None = None,
               item_fn: Callable[[ItemTask], dict] = search_item) -> BatchOutcome:
     """Run (or continue) a batch: every item of ``input_path`` in this shard gets a run
     folder under ``out/runs`` and exactly one row in ``out/results.jsonl``.
@@ -725,6 +729,10 @@ def run_batch(input_path: str | os.PathLike | None, out: str | os.PathLike, *,
         processes. Workers must see ``out`` at the same path (a shared file system).
     quiet : bool
         No progress bar.
+    search_options : dict, optional
+        Extra keyword arguments of :func:`plait.search.api.reduce` for every item (for
+        example ``objective``, ``params``, ``checkpoint_every``); kept in ``batch.json``.
+        Not used with ``bridge``.
     item_fn : callable
         ``ItemTask -> dict``; :func:`search_item` (the search) by default. Must be a
         module-level function (it is pickled to the workers).
@@ -768,7 +776,8 @@ def run_batch(input_path: str | os.PathLike | None, out: str | os.PathLike, *,
     out.mkdir(parents=True, exist_ok=True)
     with _FolderLock(out):
         cfg, items = _config(out, inp, seed=seed, steps=steps, time_budget=time,
-                             strategy=strategy, bridge=bridge, shard=shard, resume=resume)
+                             strategy=strategy, bridge=bridge, shard=shard,
+                             search_options=search_options, resume=resume)
         shard = None if cfg["shard"] is None else tuple(cfg["shard"])
         share = [it for it in items if _in_shard(it.id, shard)]
         results = out / RESULTS_FILE
@@ -834,7 +843,8 @@ def _execute(cfg: dict, out: Path, todo: list[BatchItem], share: list[BatchItem]
             yield ItemTask(id=it.id, line=it.line, seed=s,
                            presentation=presentation_to_obj(it.presentation),
                            run_dir=str(runs / run_folder_name(it.id)), steps=cfg["steps"],
-                           time=cfg["time"], strategy=cfg["strategy"], bridge=cfg["bridge"])
+                           time=cfg["time"], strategy=cfg["strategy"], bridge=cfg["bridge"],
+                           options=cfg.get("search_options"))
 
     old_term = _raise_on_sigterm()
     try:
@@ -886,7 +896,8 @@ def merge_batches(folders: list[str | os.PathLike], out: str | os.PathLike) -> d
         raise InputError("batch-merge: give at least one shard folder")
     out = Path(out).resolve()
     cfgs, all_rows, seen_shards = [], {}, set()
-    keys = ("input_sha256", "seed", "steps", "time", "strategy", "bridge", "items_total")
+    keys = ("input_sha256", "seed", "steps", "time", "strategy", "bridge", "search_options",
+            "items_total")
     for folder in folders:
         folder = Path(folder).resolve()
         cfg_path = folder / CONFIG_FILE

@@ -11,7 +11,7 @@ import time
 from pathlib import Path
 
 import pytest
-from plait.search.batch import read_rows, strip_volatile
+from plait.search.batch import read_rows, run_batch, strip_volatile
 from plait.search.randomplat import random_plats
 
 from plait.cli import main
@@ -144,3 +144,47 @@ def test_bridge_batch_on_knotinfo_diagrams(tmp_path):
         assert r["bridge_bounds"]["upper"] == kidata.knot(n).bridge_index
         assert r["result"]["bridges"] == r["bridge_bounds"]["upper"]
         assert r["wirtinger"]["number"] >= r["bridge_bounds"]["lower"]
+
+
+_MID_ITEM = """
+import sys
+from plait.search.batch import run_batch
+kw = dict(steps=300, seed=1, search_options={{"checkpoint_every": 0.2}})
+run_batch({src!r}, {out!r}, workers=1, quiet=True,
+          **(kw if sys.argv[1] == "new" else dict(resume=True)))
+"""
+
+
+def test_kill_minus_9_mid_item_continues_from_the_run_folder(tmp_path):
+    # the first knot of the examples' survey: a 4- to 6-bridge random plat, long enough
+    # for the search to write checkpoints (every 0.2 s here)
+    (ident, plat), = list(random_plats(1, bridges=(4, 6), length=(40, 80), seed=2026,
+                                        knot=True, prefix="survey-"))
+    src = tmp_path / "one.jsonl"
+    src.write_text(json.dumps({"id": ident, "plat": list(plat.word),
+                               "strands": plat.strands}) + "\n")
+    ref = tmp_path / "ref"
+    run_batch(src, ref, steps=300, seed=1, workers=1, quiet=True,
+              search_options={"checkpoint_every": 0.2})
+    out = tmp_path / "out"
+    script = _MID_ITEM.format(src=str(src), out=str(out))
+    p = subprocess.Popen([sys.executable, "-c", script, "new"], stdout=subprocess.DEVNULL,
+                         stderr=subprocess.PIPE)
+    deadline = time.monotonic() + 120
+    log = None
+    while p.poll() is None and time.monotonic() < deadline:
+        logs = list((out / "runs").glob("*/log.jsonl")) if (out / "runs").exists() else []
+        if logs and '"checkpoint"' in logs[0].read_text():
+            log = logs[0]
+            break
+        time.sleep(0.02)
+    if p.poll() is None:
+        p.send_signal(signal.SIGKILL)  # kill -9 in the middle of the item
+    p.wait()
+    assert log is not None, "the search finished before its first checkpoint"
+    assert read_rows(out / "results.jsonl") == []
+    done = subprocess.run([sys.executable, "-c", script, "resume"], capture_output=True,
+                          text=True, timeout=300)
+    assert done.returncode == 0, done.stderr
+    assert '"resume"' in log.read_text()  # continued from the checkpoint, not restarted
+    assert _rows(out) == _rows(ref)
