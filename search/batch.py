@@ -764,6 +764,8 @@ def run_batch(input_path: str | os.PathLike | None, out: str | os.PathLike, *,
         raise InputError(f"--steps must be non-negative, got {steps}")
     if time is not None and not (time > 0 and math.isfinite(time)):
         raise InputError(f"--time must be a positive number of seconds, got {time}")
+    if item_fn is search_item:
+        _check_search_options(strategy, search_options)
     out = Path(out).resolve()
     if out.exists() and not out.is_dir():
         raise InputError(f"--out {out} is a file, not a folder")
@@ -798,6 +800,24 @@ def run_batch(input_path: str | os.PathLike | None, out: str | os.PathLike, *,
             return BatchOutcome(summary, 0, 0, str(out))
         return _execute(cfg, out, todo, share, rows, workers=workers, dask=dask, quiet=quiet,
                         item_fn=item_fn, started=started)
+
+
+def _check_search_options(strategy: str | None, options: dict | None) -> None:
+    """Refuse a strategy name or a search option that every item would fail on."""
+    import inspect
+
+    from plait.search.api import reduce
+    from plait.search.portfolio import STRATEGY_NAMES
+
+    if strategy is not None and strategy not in STRATEGY_NAMES:
+        raise InputError(f"--strategy: unknown name {strategy!r} (choose from "
+                         f"{', '.join(STRATEGY_NAMES)})")
+    own = {"presentation", "strategy", "time", "steps", "seed", "run_dir", "quiet",
+           "handle_signals"}
+    allowed = set(inspect.signature(reduce).parameters) - own
+    for key in options or {}:
+        if key not in allowed:
+            raise InputError(f"search option {key!r} is not one of {', '.join(sorted(allowed))}")
 
 
 def _now() -> float:

@@ -120,8 +120,10 @@ def test_batch_command_reports_bad_options(tmp_path, capsys):
     assert main(["batch", str(src), "--out", str(tmp_path / "o"), "--shard", "3/3"]) == 2
     assert main(["batch", str(tmp_path / "missing.jsonl"), "--out", str(tmp_path / "o")]) == 2
     assert main(["batch", "--out", str(tmp_path / "never"), "--resume"]) == 2
+    assert main(["batch", str(src), "--out", str(tmp_path / "o"), "--strategy", "nope"]) == 2
     err = capsys.readouterr().err
     assert "--shard" in err and "not found" in err and "no batch to resume" in err
+    assert "unknown name 'nope'" in err
     assert not (tmp_path / "o").exists() and not (tmp_path / "never").exists()
 
 
