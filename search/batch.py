@@ -476,8 +476,10 @@ class _FolderLock:
         self.fd: int | None = None
 
     def __enter__(self) -> _FolderLock:
-        import fcntl
-
+        try:
+            import fcntl
+        except ImportError:  # not a POSIX system: no lock
+            return self
         self.fd = os.open(self.path, os.O_RDWR | os.O_CREAT, 0o644)
         try:
             fcntl.flock(self.fd, fcntl.LOCK_EX | fcntl.LOCK_NB)
