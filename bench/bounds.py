@@ -26,8 +26,8 @@ from collections import Counter
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "tests"))
 
 from kidata import knots  # noqa: E402
-from plait.scoring.bounds import bridge_lower_bound  # noqa: E402
 
+from plait.scoring.bounds import bridge_lower_bound  # noqa: E402
 from plait.word import ClosedBraid  # noqa: E402
 
 METHODS = ("fox", "nakanishi", "not-2-bridge", "meridional-rank")

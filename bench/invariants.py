@@ -25,7 +25,6 @@ import time
 
 from plait.scoring import alexander, jones
 from plait.scoring.jones import _space, jones_state_sum
-
 from plait.word import PlatWord
 
 

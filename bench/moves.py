@@ -7,7 +7,6 @@ import random
 import time
 
 from plait.moves import canonical, neighbor_deltas, neighbors
-
 from plait.word import PlatWord
 
 

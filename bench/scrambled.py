@@ -31,9 +31,8 @@ def _one(job: tuple) -> dict:
     """Run one (knot, strategy) item; returns a row of measurements."""
     name, braid, bridge_index, index, strategy, seconds, seed, root = job
     import plait.moves as moves
-    from plait.search import reduce
-
     from plait.errors import GuardViolation
+    from plait.search import reduce
     from plait.word import ClosedBraid
 
     clean = ClosedBraid.from_word(braid).to_plat()

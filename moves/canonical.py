@@ -13,7 +13,6 @@ from plait.moves.rewrite import (
     raag_reduce,
     take_block,
 )
-
 from plait.word import PlatWord
 
 __all__ = ["canonical", "canonical_with_moves", "canonical_word"]

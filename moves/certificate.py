@@ -8,11 +8,10 @@ import os
 from collections.abc import Iterable
 from dataclasses import dataclass, field
 
-from plait.moves.records import MoveRecord
-from plait.moves.replay import ReplayResult, replay
-
 from plait.atomic import write_text_atomic
 from plait.errors import InputError
+from plait.moves.records import MoveRecord
+from plait.moves.replay import ReplayResult, replay
 from plait.word import PlatWord
 
 __all__ = [

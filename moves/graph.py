@@ -22,7 +22,6 @@ from plait.moves.rewrite import (
     reduce_handle,
 )
 from plait.moves.stabilize import destab_sites, destabilize_word, stab_letters, stabilize_word
-
 from plait.word import PlatWord
 
 __all__ = ["apply_move", "neighbor_deltas", "neighbors", "multiply", "handle_shorten"]

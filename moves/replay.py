@@ -8,7 +8,6 @@ from functools import cache
 
 from plait.moves.pairing import artin_action, in_pairing_subgroup
 from plait.moves.records import MoveRecord
-
 from plait.word import MAX_LENGTH, MAX_STRANDS, PlatWord
 
 __all__ = ["ReplayResult", "replay", "check_step", "StepError", "same_modulo_commutation"]

@@ -5,7 +5,6 @@ from __future__ import annotations
 from collections.abc import Iterator, Sequence
 
 from plait.moves.records import MoveRecord, fast_plat
-
 from plait.word import PlatWord
 
 __all__ = [

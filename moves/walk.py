@@ -14,7 +14,6 @@ from plait.moves.records import (
     MoveRecord,
 )
 from plait.moves.stabilize import stab_letters
-
 from plait.word import MAX_STRANDS, PlatWord
 
 __all__ = ["random_walk", "scramble", "random_move", "WALK_KINDS"]

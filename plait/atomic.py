@@ -50,7 +50,12 @@ def append_line_durable(path: str | os.PathLike, line: str) -> None:
     data = (line.rstrip("\n") + "\n").encode("utf-8")
     fd = os.open(path, os.O_WRONLY | os.O_APPEND | os.O_CREAT, 0o644)
     try:
-        os.write(fd, data)
+        view = memoryview(data)
+        while view:  # a short write (e.g. a full disk) must not leave half a line unnoticed
+            n = os.write(fd, view)
+            if n <= 0:
+                raise OSError(f"could not append to {path}")
+            view = view[n:]
         os.fsync(fd)
     finally:
         os.close(fd)

@@ -5,10 +5,10 @@ from __future__ import annotations
 from functools import lru_cache
 
 import numpy as np
-from plait.scoring import laurent as lp
-from plait.scoring.orientation import trace
 
 from plait.errors import InputError
+from plait.scoring import laurent as lp
+from plait.scoring.orientation import trace
 from plait.word import PlatWord
 
 __all__ = [

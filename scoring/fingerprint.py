@@ -5,6 +5,7 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from fractions import Fraction
 
+from plait.errors import GuardViolation, InputError
 from plait.scoring import laurent as lp
 from plait.scoring.alexander import (
     alexander,
@@ -16,8 +17,6 @@ from plait.scoring.alexander import (
 )
 from plait.scoring.jones import MAX_JONES_BRIDGES, jones, mirror_jones
 from plait.scoring.orientation import linking_matrix
-
-from plait.errors import GuardViolation, InputError
 from plait.word import PlatWord
 
 __all__ = [

@@ -8,9 +8,9 @@ from fractions import Fraction
 from functools import cache, lru_cache
 
 import numpy as np
-from plait.scoring.orientation import writhe
 
 from plait.errors import InputError
+from plait.scoring.orientation import writhe
 from plait.word import PlatWord
 
 __all__ = [

@@ -8,7 +8,6 @@ from dataclasses import asdict, dataclass, field
 import plait.moves as _moves
 from plait.scoring.objective import isolation
 from plait.search.engine import SearchContext
-
 from plait.word import PlatWord
 
 __all__ = ["AnnealParams", "Annealer"]

@@ -10,6 +10,9 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 import plait.moves as _moves
+from plait.convert import to_plat
+from plait.errors import GuardViolation, InputError
+from plait.formats import presentation_from_obj, presentation_to_obj
 from plait.scoring.objective import make_objective
 from plait.search.engine import (
     SearchContext,
@@ -19,10 +22,6 @@ from plait.search.engine import (
 )
 from plait.search.portfolio import STRATEGY_NAMES, Budget, check_params, make_strategy
 from plait.search.runfolder import DEFAULT_RUNS, STATE_FORMAT, RunFolder, new_run_dir
-
-from plait.convert import to_plat
-from plait.errors import GuardViolation, InputError
-from plait.formats import presentation_from_obj, presentation_to_obj
 from plait.word import ClosedBraid, PlatWord
 
 __all__ = ["reduce", "resume", "ReduceResult", "DEFAULT_TIME"]

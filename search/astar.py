@@ -7,7 +7,6 @@ from dataclasses import asdict, dataclass
 
 from plait.scoring.objective import isolation
 from plait.search.engine import BoundedSet, SearchContext, word_hash
-
 from plait.word import PlatWord
 
 __all__ = ["AStarParams", "AStarSearch", "heuristic"]

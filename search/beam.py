@@ -5,7 +5,6 @@ from __future__ import annotations
 from dataclasses import asdict, dataclass
 
 from plait.search.engine import BoundedSet, SearchContext, word_hash
-
 from plait.word import PlatWord
 
 __all__ = ["BeamParams", "BeamSearch"]

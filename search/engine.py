@@ -10,7 +10,6 @@ from collections.abc import Callable, Iterable, Iterator
 
 import plait.moves as _moves
 from plait.scoring.objective import Objective, isolation
-
 from plait.word import PlatWord
 
 __all__ = [

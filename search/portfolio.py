@@ -5,12 +5,11 @@ from __future__ import annotations
 from collections.abc import Callable
 from dataclasses import dataclass, field
 
+from plait.errors import InputError
 from plait.search.anneal import Annealer, AnnealParams
 from plait.search.astar import AStarParams, AStarSearch
 from plait.search.beam import BeamParams, BeamSearch
 from plait.search.engine import SearchContext
-
-from plait.errors import InputError
 
 __all__ = [
     "STRATEGY_NAMES", "make_strategy", "check_params", "Portfolio", "PortfolioParams",

@@ -12,6 +12,11 @@ import time
 from pathlib import Path
 
 import pytest
+
+from plait.atomic import write_json_atomic
+from plait.cli import main
+from plait.errors import InputError
+from plait.formats import presentation_from_obj
 from plait.search.batch import (
     ItemTask,
     format_summary,
@@ -26,11 +31,6 @@ from plait.search.batch import (
     summarize,
 )
 from plait.search.randomplat import random_plats
-
-from plait.atomic import write_json_atomic
-from plait.cli import main
-from plait.errors import InputError
-from plait.formats import presentation_from_obj
 
 TESTS = Path(__file__).resolve().parent
 REPO = TESTS.parent

@@ -11,10 +11,10 @@ import time
 from pathlib import Path
 
 import pytest
-from plait.search.batch import read_rows, run_batch, strip_volatile
-from plait.search.randomplat import random_plats
 
 from plait.cli import main
+from plait.search.batch import read_rows, run_batch, strip_volatile
+from plait.search.randomplat import random_plats
 
 STEPS = "60"
 SEED = "5"

@@ -8,6 +8,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 from kidata import knot, knots
+
 from plait.scoring import alexander, fox_coloring_dimension, jones
 from plait.scoring.bounds import LowerBound, bridge_lower_bound, not_two_bridge
 from plait.scoring.quotients import (
@@ -17,7 +18,6 @@ from plait.scoring.quotients import (
     target,
 )
 from plait.scoring.signature import goeritz_matrix, signature, symmetric_inertia
-
 from plait.word import ClosedBraid, PlatWord
 
 
@@ -351,6 +351,7 @@ def test_two_component_links_against_linkinfo():
     import re
 
     from database_knotinfo import link_list
+
     from plait.scoring import determinant
 
     kept: dict[int, set[tuple[str, int]]] = {}

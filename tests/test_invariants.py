@@ -9,6 +9,8 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 from kidata import knot
+
+from plait.errors import GuardViolation, InputError
 from plait.scoring import (
     Fingerprint,
     alexander,
@@ -29,8 +31,6 @@ from plait.scoring import (
 from plait.scoring import laurent as lp
 from plait.scoring.alexander import alexander_minors
 from plait.scoring.jones import MAX_JONES_BRIDGES, bracket_state_sum
-
-from plait.errors import GuardViolation, InputError
 from plait.word import ClosedBraid, PlatWord
 
 F = Fraction

@@ -6,6 +6,8 @@ from fractions import Fraction
 
 import pytest
 from kidata import knots
+
+from plait.pd import plat_to_pd, validate_pd
 from plait.scoring import (
     alexander,
     determinant,
@@ -17,8 +19,6 @@ from plait.scoring import (
 )
 from plait.scoring import laurent as lp
 from plait.scoring.jones import jones_state_sum_pd
-
-from plait.pd import plat_to_pd, validate_pd
 from plait.word import ClosedBraid
 
 KNOTS = knots(10)  # the 249 KnotInfo knots of 3 to 10 crossings

@@ -3,6 +3,9 @@
 import json
 
 import pytest
+
+from plait.cli import main
+from plait.errors import InputError
 from plait.moves import (
     destabilize_all,
     load_certificate,
@@ -12,9 +15,6 @@ from plait.moves import (
     write_certificate,
 )
 from plait.moves.certificate import certificate_digest
-
-from plait.cli import main
-from plait.errors import InputError
 from plait.word import ClosedBraid, PlatWord
 
 

@@ -4,6 +4,7 @@ import random
 
 from hypothesis import assume, given, settings
 from hypothesis import strategies as st
+
 from plait.moves import (
     MOVE_KINDS,
     apply_move,
@@ -20,7 +21,6 @@ from plait.moves import (
 )
 from plait.moves.records import MoveRecord
 from plait.scoring import fingerprint, guard
-
 from plait.word import ClosedBraid, PlatWord
 
 

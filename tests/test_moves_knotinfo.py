@@ -2,9 +2,9 @@
 
 import pytest
 from kidata import knot, knots
+
 from plait.moves import canonical, destabilize_all, random_walk, replay
 from plait.scoring import jones
-
 from plait.word import ClosedBraid
 
 KNOTS = knots(10)

@@ -5,6 +5,7 @@ import itertools
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
+
 from plait.moves.pairing import (
     artin_action,
     free_reduce,

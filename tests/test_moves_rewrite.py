@@ -5,6 +5,7 @@ import random
 
 from hypothesis import given, settings
 from hypothesis import strategies as st
+
 from plait.moves.pairing import artin_action
 from plait.moves.replay import same_modulo_commutation
 from plait.moves.rewrite import (
@@ -106,7 +107,6 @@ def test_handle_reduction_keeps_the_braid():
 def test_handle_shorten_keeps_the_braid_and_replays():
     # source: Dehornoy 1997 (handle reduction keeps the braid); checked with Artin's action
     from plait.moves import handle_shorten, replay
-
     from plait.word import PlatWord
 
     rng = random.Random(11)

@@ -5,11 +5,14 @@ from __future__ import annotations
 import json
 from fractions import Fraction
 
-import plait.moves as moves
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 from kidata import knot
+
+import plait.moves as moves
+from plait.cli import main
+from plait.errors import GuardViolation, InputError
 from plait.scoring import jones
 from plait.scoring.objective import (
     cancel_potential,
@@ -21,9 +24,6 @@ from plait.scoring.objective import (
 )
 from plait.search import ReduceResult, reduce, resume
 from plait.search.engine import BoundedSet, PathStore, rng_state_from_json, rng_state_to_json
-
-from plait.cli import main
-from plait.errors import GuardViolation, InputError
 from plait.word import ClosedBraid, PlatWord
 
 

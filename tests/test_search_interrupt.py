@@ -10,13 +10,13 @@ import sys
 import time
 from pathlib import Path
 
-import plait.moves as moves
 import pytest
 from kidata import knot
-from plait.search import reduce
 
+import plait.moves as moves
 from plait.cli import main
 from plait.formats import presentation_to_obj
+from plait.search import reduce
 from plait.word import ClosedBraid, PlatWord
 
 pytestmark = pytest.mark.skipif(os.name != "posix", reason="POSIX signals")

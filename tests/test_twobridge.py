@@ -11,6 +11,8 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 from kidata import knot, knots
+
+from plait.errors import InputError
 from plait.scoring import determinant, jones, mirror_jones
 from plait.scoring.signature import signature
 from plait.scoring.twobridge import (
@@ -19,8 +21,6 @@ from plait.scoring.twobridge import (
     two_bridge_classes,
     two_bridge_plat,
 )
-
-from plait.errors import InputError
 
 
 @cache
