@@ -319,7 +319,7 @@ def wirtinger_exhaustive(pd: PDCode, *, arcs: DiagramArcs | None = None) -> Wirt
 
 def wirtinger_cpsat(pd: PDCode, *, time_limit: float = 10.0, seed: int = 0,
                     arcs: DiagramArcs | None = None) -> Wirtinger:
-    """Wirtinger number by CP-SAT, stopped after ``time_limit`` seconds.
+    """Wirtinger number by CP-SAT, stopped after ``time_limit`` (deterministic) seconds.
 
     Model (an ordering formulation): a Boolean ``seed[a]`` and an integer time
     ``t[a] in [0, m]`` per arc, and a Boolean ``y[j, a]`` for "arc ``a`` is colored at
@@ -370,7 +370,10 @@ def wirtinger_cpsat(pd: PDCode, *, time_limit: float = 10.0, seed: int = 0,
     for a in range(n):
         model.AddHint(seed_v[a], int(a in gset))
     solver = cp_model.CpSolver()
-    solver.parameters.max_time_in_seconds = float(time_limit)
+    # the deterministic limit makes results repeatable; the wall-clock one (three times
+    # longer) only stops a solver starved by a loaded machine
+    solver.parameters.max_deterministic_time = float(time_limit)
+    solver.parameters.max_time_in_seconds = 3.0 * float(time_limit)
     solver.parameters.num_workers = 1
     solver.parameters.random_seed = int(seed)
     status = solver.Solve(model)
