@@ -140,7 +140,7 @@ def _describe(p: int, q: int) -> str:
 
 @lru_cache(maxsize=4096)
 def _not_two_bridge(plat: PlatWord, det: int) -> tuple[bool, str]:
-    from plait.scoring.twobridge import two_bridge_classes
+    from plait.scoring.twobridge import MAX_DETERMINANT, two_bridge_classes
 
     comps = plat.components
     if comps >= 3:
@@ -151,6 +151,9 @@ def _not_two_bridge(plat: PlatWord, det: int) -> tuple[bool, str]:
         return True, f"determinant {det} is odd; a 2-component 2-bridge link S(p,q) has p even"
     if comps == 1 and det % 2 == 0:
         return True, f"determinant {det} is even; a 2-bridge knot S(p,q) has p odd"
+    if det > MAX_DETERMINANT:
+        return False, (f"determinant {det} is too large to list its 2-bridge candidates "
+                       f"(limit {MAX_DETERMINANT})")
     classes = two_bridge_classes(det)
     invariants = separating_invariants(comps)
     ours: dict[int, object] = {}
@@ -344,17 +347,20 @@ def _witness(plat: PlatWord, name: str) -> int | None:
     return None if w is None else w[0]
 
 
-def _odd_prime_factors(n: int) -> list[int]:
+def _odd_prime_factors(n: int, limit: int = 10_000) -> list[int]:
+    """Odd primes dividing ``n`` found by trial division up to ``limit``, plus the cofactor
+    left when it is below ``limit**2`` (then it is prime)."""
     n = abs(n)
-    out, p = [], 3
-    while n % 2 == 0 and n:
+    out = []
+    while n and n % 2 == 0:
         n //= 2
-    while p * p <= n:
+    p = 3
+    while p <= limit and p * p <= n:
         if n % p == 0:
             out.append(p)
             while n % p == 0:
                 n //= p
         p += 2
-    if n > 1:
+    if 1 < n < limit * limit:
         out.append(n)
     return out

@@ -361,6 +361,10 @@ def _propagate(arcs: Arcs, known: list[bool], by_arc: list[list[int]],
     return n_new
 
 
+#: Arcs tried as the next seed when building the labelling program.
+SEED_TRIALS = 48
+
+
 @lru_cache(maxsize=4096)
 def _program(plat: PlatWord) -> _Program:
     arcs = plat_arcs(plat)
@@ -374,9 +378,10 @@ def _program(plat: PlatWord) -> _Program:
     stages = []
     while not all(known):
         best, best_gain = -1, -1
-        for x in range(n):
-            if known[x]:
-                continue
+        # try the unknown arcs met by the most crossings (at most SEED_TRIALS of them)
+        trials = sorted((x for x in range(n) if not known[x]),
+                        key=lambda x: (-len(by_arc[x]), x))[:SEED_TRIALS]
+        for x in trials:
             k2, u2 = known[:], used[:]
             k2[x] = True
             gain = _propagate(arcs, k2, by_arc, list(by_arc[x]), u2, [], None)
