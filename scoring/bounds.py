@@ -33,7 +33,7 @@ RANK_TARGETS = ("S5/transposition", "S6/transposition")
 
 #: A homomorphism search gives up (and its count is not used) after this many label
 #: operations.
-QUOTIENT_BUDGET = 400_000
+QUOTIENT_BUDGET = 3_000_000
 
 
 @dataclass(frozen=True)
@@ -281,8 +281,9 @@ def bridge_lower_bound(plat: PlatWord) -> LowerBound:
         why = _unknot_distinguished(plat)
         if why is None:
             found.append((1, "unknot", "determinant, Alexander and Jones polynomials and "
-                          "signature agree with the unknot's; invariants cannot prove a knot "
-                          "knotted in general, and b = 1 is claimed only for a 1-bridge plat"))
+                          "signature agree with the unknot's, so nothing proves b ≥ 2; "
+                          "invariants cannot prove that a knot is the unknot, so b = 1 is "
+                          "claimed only for a 1-bridge plat"))
         else:
             found.append((2, "knotted", f"{why}, so the knot is not the unknot → b ≥ 2 "
                           "(Schubert 1954: b = 1 only for the unknot)"))

@@ -362,7 +362,7 @@ def _propagate(arcs: Arcs, known: list[bool], by_arc: list[list[int]],
 
 
 #: Arcs tried as the next seed when building the labelling program.
-SEED_TRIALS = 48
+SEED_TRIALS = 128
 
 
 @lru_cache(maxsize=4096)
@@ -379,8 +379,9 @@ def _program(plat: PlatWord) -> _Program:
     while not all(known):
         best, best_gain = -1, -1
         # try the unknown arcs met by the most crossings (at most SEED_TRIALS of them)
-        trials = sorted((x for x in range(n) if not known[x]),
-                        key=lambda x: (-len(by_arc[x]), x))[:SEED_TRIALS]
+        trials = [x for x in range(n) if not known[x]]
+        if len(trials) > SEED_TRIALS:
+            trials = sorted(sorted(trials, key=lambda x: -len(by_arc[x]))[:SEED_TRIALS])
         for x in trials:
             k2, u2 = known[:], used[:]
             k2[x] = True
