@@ -17,6 +17,7 @@ from plait.scoring.alexander import (
 )
 from plait.scoring.jones import MAX_JONES_BRIDGES, jones, mirror_jones
 from plait.scoring.orientation import linking_matrix
+from plait.scoring.signature import signature
 from plait.word import PlatWord
 
 __all__ = [
@@ -54,6 +55,9 @@ class Fingerprint:
     module : dict or None
         ``{ring: number of non-unit invariant factors minus one}`` over ``F_p[t,t^-1]``
         (key ``"F_p"``) and ``Q[t,t^-1]`` (key ``"Q"``) (full level).
+    signature : int or None
+        Knot signature (Gordon–Litherland, KnotInfo's sign convention), full level and
+        knots only: it separates pairs that Jones and Alexander do not (10_132 and 5_1).
     """
 
     level: str
@@ -64,6 +68,7 @@ class Fingerprint:
     alexander: dict | None = None
     fox: dict | None = None
     module: dict | None = None
+    signature: int | None = None
 
     def __hash__(self) -> int:  # dicts inside: hash the JSON form
         import json
@@ -82,6 +87,7 @@ class Fingerprint:
             "alexander": None if self.alexander is None else _poly_to_json(self.alexander),
             "fox": None if self.fox is None else {str(p): d for p, d in sorted(self.fox.items())},
             "module": None if self.module is None else dict(sorted(self.module.items())),
+            "signature": self.signature,
         }
 
     @classmethod
@@ -107,6 +113,7 @@ class Fingerprint:
                     int(p): int(d) for p, d in obj["fox"].items()},
                 module=None if obj.get("module") is None else {
                     str(k): int(v) for k, v in obj["module"].items()},
+                signature=None if obj.get("signature") is None else int(obj["signature"]),
             )
         except (KeyError, TypeError, ValueError) as exc:
             raise InputError(f"fingerprint: malformed JSON ({exc.__class__.__name__}: {exc})"
@@ -132,8 +139,8 @@ def fingerprint(plat: PlatWord, level: str = "cheap") -> Fingerprint:
         linear in the word length for a fixed number of bridges; Jones is skipped above
         :data:`CHEAP_JONES_BRIDGES` bridges, and above
         :data:`plait.scoring.jones.MAX_JONES_BRIDGES` at the full level). ``"full"``
-        adds the Alexander polynomial, Fox 3-, 5- and 7-coloring dimensions and the
-        Alexander-module invariant factor counts.
+        adds the Alexander polynomial, Fox 3-, 5- and 7-coloring dimensions, the
+        Alexander-module invariant factor counts and, for knots, the signature.
 
     Returns
     -------
@@ -155,6 +162,8 @@ def fingerprint(plat: PlatWord, level: str = "cheap") -> Fingerprint:
         M = alexander_matrix(plat)
         kw["module"] = {("Q" if p is None else f"F_{p}"): invariant_factor_count(M, p) - 1
                         for p in module_bound_rings(plat)}
+        if kw["components"] == 1:
+            kw["signature"] = signature(plat)
     return Fingerprint(**kw)
 
 
@@ -203,6 +212,10 @@ def _differences(a: Fingerprint, b: Fingerprint, mirror: bool) -> list[tuple[str
         for r in sorted(set(a.module) & set(b.module)):
             if a.module[r] != b.module[r]:
                 out.append((f"Alexander module over {r}[t,t^-1]", a.module[r], b.module[r]))
+    if a.components == 1 and a.signature is not None and b.signature is not None:
+        sb = -b.signature if mirror else b.signature
+        if a.signature != sb:
+            out.append(("signature", a.signature, b.signature))
     return out
 
 
