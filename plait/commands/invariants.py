@@ -98,7 +98,7 @@ def run(args: argparse.Namespace) -> int:
         print("linking matrix:       " + "; ".join(" ".join(str(v) for v in row)
                                                 for row in rep["linking"]))
     status = " (attained by this plat)" if lb["exact"] else ""
-    print(f"bridge number ≥ {lb['value']}{status}, by {lb['method']}:")
+    print(f"bridge number ≥ {lb['value']}{status} [proved by: {lb['method']}]")
     for r in lb["reasons"]:
         print(f"  - {r}")
     return 0
