@@ -130,6 +130,8 @@ def load_certificate(path: str | os.PathLike) -> Certificate:
         raise InputError(f"certificate: cannot read {path}: {exc.__class__.__name__}") from None
     except json.JSONDecodeError as exc:
         raise InputError(f"certificate: {path} is not JSON (line {exc.lineno})") from None
+    except RecursionError:
+        raise InputError(f"certificate: {path} is JSON nested too deeply") from None
     return certificate_from_obj(obj)
 
 

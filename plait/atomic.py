@@ -7,6 +7,8 @@ import os
 import tempfile
 from pathlib import Path
 
+from plait.errors import InputError
+
 __all__ = ["write_text_atomic", "write_json_atomic", "append_line_durable"]
 
 
@@ -14,8 +16,7 @@ def write_text_atomic(path: str | os.PathLike, text: str) -> None:
     """Write ``text`` to ``path`` so that readers see the old file or the new one, never
     a mixture: write a temporary file in the same folder, fsync it, rename it over the
     target, then fsync the folder so the rename itself survives a power cut."""
-    path = Path(path)
-    path.parent.mkdir(parents=True, exist_ok=True)
+    path = _writable_target(Path(path))
     fd, tmp = tempfile.mkstemp(prefix="." + path.name + ".", suffix=".tmp", dir=path.parent)
     try:
         with os.fdopen(fd, "w", encoding="utf-8") as fh:
@@ -59,6 +60,20 @@ def append_line_durable(path: str | os.PathLike, line: str) -> None:
         os.fsync(fd)
     finally:
         os.close(fd)
+
+
+def _writable_target(path: Path) -> Path:
+    # a folder as target, or a file where a parent folder should be, is the caller's
+    # mistake: say so in one line instead of failing inside mkdir or mkstemp
+    if path.is_dir():
+        raise InputError(f"{path} is a folder, not a file")
+    for parent in path.parents:
+        if parent.exists():
+            if not parent.is_dir():
+                raise InputError(f"cannot write {path}: {parent} is a file, not a folder")
+            break
+    path.parent.mkdir(parents=True, exist_ok=True)
+    return path
 
 
 def _fsync_dir(folder: Path) -> None:

@@ -71,6 +71,8 @@ class BridgeReport:
 
 
 def _pd_list(plat: PlatWord) -> list | None:
+    if not plat.word and plat.components > 1:
+        return None  # the empty code is the unknot, not an unlink
     try:
         return plat_to_pd(plat).to_list()
     except InputError:

@@ -116,6 +116,13 @@ def main(argv: Sequence[str] | None = None) -> int:
         return 130
     except BrokenPipeError:
         return 0
+    except OSError as exc:  # a path the user named cannot be read or written
+        where = f": {exc.filename}" if exc.filename else ""
+        sys.stderr.write(f"plait: error: {exc.strerror or exc}{where}\n")
+        return EXIT_INPUT
+    except RecursionError:  # e.g. JSON nested thousands deep in some file
+        sys.stderr.write("plait: error: input nested too deeply\n")
+        return EXIT_INPUT
     except Exception as exc:  # a bug, not bad input: one line unless debugging
         if os.environ.get("PLAIT_DEBUG"):
             raise

@@ -94,6 +94,8 @@ def parse_pd(text: str) -> PDCode:
     except json.JSONDecodeError as exc:
         raise InputError(f"pd: not a list of crossings ({exc.msg} at character {exc.pos + 1})")\
             from None
+    except RecursionError:
+        raise InputError("pd: brackets nested too deeply") from None
     if not isinstance(obj, list) or not all(isinstance(c, list) for c in obj):
         raise InputError("pd: expected a list of crossings, each a list of four labels")
     return validate_pd(obj)
@@ -195,6 +197,8 @@ def read_presentation_file(path: str | os.PathLike) -> Presentation:
             obj = json.loads(s)
         except json.JSONDecodeError as exc:
             raise InputError(f"{path}: invalid JSON ({exc.msg}, line {exc.lineno})") from None
+        except RecursionError:
+            raise InputError(f"{path}: JSON nested too deeply") from None
         if isinstance(obj, dict) and "format" in obj and obj["format"] != FORMAT_TAG:
             raise InputError(f"{path}: unknown format {obj['format']!r}")
         return presentation_from_obj(obj)
@@ -237,6 +241,9 @@ def iter_batch_lines(path: str | os.PathLike) -> Iterator[BatchItem]:
                     obj = json.loads(s)
                 except json.JSONDecodeError as exc:
                     yield BatchItem(f"line-{lineno}", lineno, None, f"invalid JSON ({exc.msg})")
+                    continue
+                except RecursionError:
+                    yield BatchItem(f"line-{lineno}", lineno, None, "JSON nested too deeply")
                     continue
                 ident = obj.get("id", f"line-{lineno}") if isinstance(obj, dict) else None
                 ident = str(ident) if ident is not None else f"line-{lineno}"

@@ -7,7 +7,7 @@ import random
 from collections.abc import Iterator
 
 from plait.errors import InputError
-from plait.word import PlatWord
+from plait.word import MAX_LENGTH, MAX_STRANDS, PlatWord
 
 __all__ = ["random_plat", "random_plats", "item_rng", "parse_range"]
 
@@ -65,6 +65,10 @@ def random_plat(bridges: int, length: int, rng: random.Random, *, knot: bool = F
         raise InputError(f"bridges must be an integer >= 1, got {bridges!r}")
     if isinstance(length, bool) or not isinstance(length, int) or length < 0:
         raise InputError(f"length must be an integer >= 0, got {length!r}")
+    if 2 * bridges > MAX_STRANDS:
+        raise InputError(f"{bridges} bridges is over the limit of {MAX_STRANDS // 2}")
+    if length > MAX_LENGTH:
+        raise InputError(f"length {length} is over the limit of {MAX_LENGTH} letters")
     strands = 2 * bridges
     top = strands - 1
     for _ in range(max_tries if knot else 1):

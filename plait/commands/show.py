@@ -6,6 +6,7 @@ import argparse
 
 from plait.cli import add_input_arguments, emit_json, load_input
 from plait.convert import to_plat
+from plait.errors import InputError
 from plait.pd import plat_to_pd
 
 NAME = "show"
@@ -24,8 +25,16 @@ def run(args: argparse.Namespace) -> int:
     plat = to_plat(pres)
     info = plat.to_dict()
     info["permutation"] = list(plat.permutation())
+    pd_note = ""
     if args.pd_out:
-        info["pd"] = plat_to_pd(plat).to_list() if plat.components == 1 or plat.word else []
+        try:
+            if not plat.word and plat.components > 1:  # the empty code would be the unknot
+                raise InputError(f"the {plat.components}-component unlink without crossings "
+                                 "has no PD code")
+            info["pd"] = plat_to_pd(plat).to_list()
+        except InputError as exc:  # a crossingless component: no PD code exists
+            info["pd"] = None
+            pd_note = str(exc).removeprefix("pd: ")
     if args.json:
         emit_json(info)
         return 0
@@ -35,5 +44,5 @@ def run(args: argparse.Namespace) -> int:
           f"{comp} component{'s' * (comp != 1)}")
     print(f"word: {plat if plat.word else '(empty)'}")
     if args.pd_out:
-        print(f"pd: {plat_to_pd(plat)}")
+        print(f"pd: {plat_to_pd(plat)}" if info["pd"] is not None else f"pd: none ({pd_note})")
     return 0
