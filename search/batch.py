@@ -504,6 +504,9 @@ def _config(out: Path, input_path: Path | None, *, seed, steps, time_budget, str
         if cfg_path.exists() or (out / RESULTS_FILE).exists():
             raise InputError(f"{out} already holds a batch: add --resume to continue it, "
                              "or choose another --out")
+        if (out / "config.json").exists() and (out / "best.json").exists():
+            raise InputError(f"{out} is the run folder of a plait reduce run, not a batch "
+                             "folder: choose another --out")
         if input_path is None:
             raise InputError("batch: give the input FILE")
         items = _read_items(input_path)

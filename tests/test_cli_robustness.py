@@ -131,3 +131,33 @@ def test_verify_accepts_the_certificate_reduce_wrote(capsys, tmp_path):
     assert res["result"]["bridges"] == 2  # KnotInfo bridge_index of 4_1 is 2
     rc, out, err = _run(capsys, ["verify", str(run / "certificate.json"), "--json"])
     assert rc == 0 and json.loads(out)["valid"] is True
+
+
+def test_batch_refuses_a_reduce_run_folder_as_out(capsys, tmp_path):
+    run = tmp_path / "run"
+    rc, _, err = _run(capsys, ["reduce", "--plat", "2 -1 2", "--steps", "1", "--quiet",
+                               "--run-dir", str(run)])
+    assert rc == 0, err
+    items = tmp_path / "items.jsonl"
+    items.write_text('{"id": "a", "plat": [2, -1, 2]}\n')
+    rc, _, err = _run(capsys, ["batch", str(items), "--out", str(run), "--steps", "1",
+                               "--quiet", "--workers", "1"])
+    _one_line_error(rc, err)
+    assert "run folder" in err and not (run / "batch.json").exists()
+    # verify takes the run folder itself and checks its certificate
+    rc, out, err = _run(capsys, ["verify", str(run)])
+    assert rc == 0 and out.startswith("valid"), err
+
+
+def test_verify_keeps_a_failure_line_short(capsys, tmp_path):
+    from plait.moves.certificate import certificate_digest
+
+    start = {"strands": 4, "word": [2, -1, 2]}
+    moves = [["reduce", 0, 1] + [1] * 5000]
+    cert = {"format": "plait-certificate/1", "start": start, "end": start, "input": None,
+            "moves": moves, "meta": {},
+            "digest": certificate_digest(start, moves, start, None)}
+    p = tmp_path / "cert.json"
+    p.write_text(json.dumps(cert))
+    rc, out, _ = _run(capsys, ["verify", str(p)])
+    assert rc == 1 and out.startswith("invalid: step 1 of 1") and len(out) < 400

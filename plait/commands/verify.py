@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import argparse
+from pathlib import Path
 
 from plait.cli import emit_json
 
@@ -12,14 +13,18 @@ ORDER = 60
 
 
 def configure(p: argparse.ArgumentParser) -> None:
-    p.add_argument("certificate", metavar="CERT", help="certificate file (JSON)")
+    p.add_argument("certificate", metavar="CERT",
+                   help="certificate file (JSON), or a run folder holding certificate.json")
     p.add_argument("--json", action="store_true", help="print one JSON object")
 
 
 def run(args: argparse.Namespace) -> int:
     from plait.moves.certificate import load_certificate, verify_certificate
 
-    cert = load_certificate(args.certificate)
+    path = Path(args.certificate)
+    if path.is_dir() and (path / "certificate.json").is_file():
+        path = path / "certificate.json"  # a run folder: check its certificate
+    cert = load_certificate(path)
     res = verify_certificate(cert)
     if args.json:
         emit_json({
@@ -43,5 +48,6 @@ def run(args: argparse.Namespace) -> int:
         where = "end word"
     else:  # steps are counted from 1 here, from 0 in the API
         where = f"step {res.failed_step + 1} of {n}"
-    print(f"invalid: {where}: {res.reason}")
+    reason = res.reason if len(res.reason) <= 300 else res.reason[:297] + "..."
+    print(f"invalid: {where}: {reason}")
     return 1
