@@ -51,6 +51,7 @@ BAD = [
     (["random-plats", "--out", "{d}"], "is a folder"),
     (["random-plats", "--length", "99999999999"], "over the limit"),
     (["random-plats", "--bridges", "100"], "over the limit"),
+    (["bridge", "--plat", "2 -1 2", "--time", "inf", "--quiet", "--run-dir", "{d}/r"], "finite"),
 ]
 
 

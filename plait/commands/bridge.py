@@ -3,9 +3,11 @@
 from __future__ import annotations
 
 import argparse
+import math
 import sys
 
 from plait.cli import add_input_arguments, emit_json, load_input
+from plait.errors import InputError
 
 NAME = "bridge"
 HELP = "estimate the bridge number: certified value or lower and upper bounds"
@@ -30,6 +32,8 @@ def configure(p: argparse.ArgumentParser) -> None:
 def run(args: argparse.Namespace) -> int:
     from plait.bridge import bridge_report
 
+    if args.time is not None and not math.isfinite(args.time):
+        raise InputError(f"--time must be a finite number of seconds, got {args.time}")
     pres = load_input(args)
     rep = bridge_report(pres, time=args.time, steps=args.steps, seed=args.seed,
                         run_dir=args.run_dir, quiet=args.quiet or args.json)
