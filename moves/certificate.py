@@ -182,6 +182,16 @@ def _check_input(cert: Certificate) -> str:
         if comps != cert.start.components:
             return (f"start word has {cert.start.components} components, the input PD code "
                     f"{comps}")
+        # the diagram -> plat step is not a sequence of moves; it is checked the way the
+        # conversion itself is guarded: same Jones polynomial as the PD code (for links,
+        # under some orientation of its components)
+        from plait.errors import GuardViolation
+        from plait.fromdiagram import check_plat
+
+        try:
+            check_plat(pres, cert.start)
+        except GuardViolation as exc:
+            return f"start word is not a plat of the input PD code ({exc.invariant} differs)"
     return ""
 
 

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import math
 import signal
 import sys
 import threading
@@ -376,7 +377,8 @@ class _Run:
             total, unit = b.time, "s"
         self._bar_unit = unit
         self._bar_last = 0.0
-        return tqdm(total=total, unit=unit, file=sys.stderr, dynamic_ncols=True,
+        # disable=None: no bar when stderr is not a terminal (logs stay clean)
+        return tqdm(total=total, unit=unit, file=sys.stderr, dynamic_ncols=True, disable=None,
                     desc=self.config["strategy"], leave=True,
                     bar_format="{desc}: {percentage:3.0f}%|{bar}| {n_fmt}/{total_fmt} "
                                "[{elapsed}]{postfix}")
@@ -515,8 +517,10 @@ def reduce(presentation, *, strategy: str = "auto", time: float | None = None,
         raise InputError(f"strategy: unknown name {strategy!r} (choose from "
                          f"{', '.join(STRATEGY_NAMES)})")
     if time is not None:
-        if isinstance(time, bool) or not isinstance(time, (int, float)) or not time > 0:
-            raise InputError(f"time: expected a positive number of seconds, got {time!r}")
+        if (isinstance(time, bool) or not isinstance(time, (int, float)) or not time > 0
+                or not math.isfinite(time)):
+            raise InputError(f"time: expected a positive, finite number of seconds, got "
+                             f"{time!r}")
         time = float(time)
     if steps is not None and (isinstance(steps, bool) or not isinstance(steps, int)
                               or steps < 0):

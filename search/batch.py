@@ -840,7 +840,8 @@ def _execute(cfg: dict, out: Path, todo: list[BatchItem], share: list[BatchItem]
              "errors": sum(1 for r in rows if r.get("error")), "lost": 0,
              "csv_at": _now()}
     bar = tqdm(total=len(share), initial=len(rows), unit="item", desc="batch",
-               disable=quiet, dynamic_ncols=True, file=sys.stderr, smoothing=0.1)
+               disable=True if quiet else None,  # None: off when stderr is no terminal
+               dynamic_ncols=True, file=sys.stderr, smoothing=0.1)
 
     def on_row(row: dict) -> None:
         append_line_durable(results, json.dumps(row, separators=(", ", ": ")))

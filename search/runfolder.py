@@ -82,6 +82,9 @@ class RunFolder:
         if self.state_path.exists() or self.config_path.exists():
             raise InputError(f"run folder {self.path} already holds a run "
                              f"(continue it with 'plait resume {self.path}')")
+        if self.path.is_dir() and any(self.path.iterdir()):
+            # never write run files among a user's own files (or overwrite them)
+            raise InputError(f"run folder {self.path} is not empty; give a new or empty folder")
         self.path.mkdir(parents=True, exist_ok=True)
 
     def write(self, name: str, obj: object, compact: bool = False) -> None:
