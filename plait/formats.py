@@ -6,6 +6,7 @@ import json
 import os
 import re
 from collections.abc import Iterator
+from contextlib import contextmanager
 from dataclasses import dataclass
 from typing import Union
 
@@ -22,6 +23,7 @@ __all__ = [
     "presentation_to_obj",
     "read_presentation_file",
     "iter_batch_lines",
+    "input_file_errors",
     "BatchItem",
     "FORMAT_TAG",
 ]
@@ -170,6 +172,19 @@ def presentation_to_obj(p: Presentation) -> dict:
     raise TypeError(f"not a presentation: {p!r}")
 
 
+@contextmanager
+def input_file_errors(path: str | os.PathLike) -> Iterator[None]:
+    """Turn the errors of reading an input file into one-line :class:`InputError`."""
+    try:
+        yield
+    except FileNotFoundError:
+        raise InputError(f"file not found: {path}") from None
+    except IsADirectoryError:
+        raise InputError(f"{path} is a folder, not a file") from None
+    except (OSError, UnicodeDecodeError) as exc:
+        raise InputError(f"cannot read {path}: {exc}") from None
+
+
 def read_presentation_file(path: str | os.PathLike) -> Presentation:
     """Read one presentation from a file.
 
@@ -178,15 +193,8 @@ def read_presentation_file(path: str | os.PathLike) -> Presentation:
     object, or a plain text file holding ``plat: WORD``, ``braid: WORD``, ``pd: CODE``, or
     a bare PD code.
     """
-    try:
-        with open(path, encoding="utf-8") as fh:
-            text = fh.read(MAX_TEXT + 1)
-    except FileNotFoundError:
-        raise InputError(f"file not found: {path}") from None
-    except IsADirectoryError:
-        raise InputError(f"{path} is a folder, not a file") from None
-    except (OSError, UnicodeDecodeError) as exc:
-        raise InputError(f"cannot read {path}: {exc}") from None
+    with input_file_errors(path), open(path, encoding="utf-8") as fh:
+        text = fh.read(MAX_TEXT + 1)
     if len(text) > MAX_TEXT:
         raise InputError(f"{path}: file is over the size limit")
     s = text.strip()

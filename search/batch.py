@@ -23,7 +23,13 @@ from pathlib import Path
 
 from plait.atomic import append_line_durable, write_json_atomic, write_text_atomic
 from plait.errors import InputError, PlaitError
-from plait.formats import BatchItem, iter_batch_lines, presentation_from_obj, presentation_to_obj
+from plait.formats import (
+    BatchItem,
+    input_file_errors,
+    iter_batch_lines,
+    presentation_from_obj,
+    presentation_to_obj,
+)
 
 __all__ = [
     "BATCH_FORMAT",
@@ -450,14 +456,8 @@ def _sha256_file(path: Path) -> str:
 
 
 def _read_items(path: Path) -> list[BatchItem]:
-    try:
+    with input_file_errors(path):
         items = list(iter_batch_lines(path))
-    except FileNotFoundError:
-        raise InputError(f"file not found: {path}") from None
-    except IsADirectoryError:
-        raise InputError(f"{path} is a folder, not a file") from None
-    except (OSError, UnicodeDecodeError) as exc:
-        raise InputError(f"cannot read {path}: {exc}") from None
     first: dict[str, int] = {}
     for it in items:
         if it.id in first:
