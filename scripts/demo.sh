@@ -7,7 +7,7 @@ cd "$(dirname "$0")/.."
 bash scripts/setup.sh
 OUT=runs/demo-survey-small
 rm -rf "$OUT"   # the demo's own output folder from an earlier demo run
-.venv/bin/plait batch examples/survey-small.jsonl --out "$OUT" --steps 500 --seed 1
+.venv/bin/plait batch examples/survey-small.jsonl --out "$OUT" --steps 3000 --seed 1
 # a picture of one item: the figure-eight control line before and after the search
 .venv/bin/plait draw "$(ls -d "$OUT"/runs/control-4_1-* | head -n 1)" --before-after \
     --out "$OUT/control-4_1.svg"
