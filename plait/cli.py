@@ -13,7 +13,8 @@ from collections.abc import Sequence
 from plait.errors import EXIT_GUARD, EXIT_INPUT, GuardViolation, InputError
 from plait.formats import Presentation, parse_presentation, read_presentation_file
 
-__all__ = ["main", "add_input_arguments", "load_input", "emit_json", "build_parser"]
+__all__ = ["main", "add_input_arguments", "add_search_arguments", "load_input", "emit_json",
+           "build_parser"]
 
 
 class _Parser(argparse.ArgumentParser):
@@ -64,6 +65,20 @@ def load_input(args: argparse.Namespace) -> Presentation:
     if kind == "file":
         return read_presentation_file(value)
     return parse_presentation(kind, value, args.strands)
+
+
+def add_search_arguments(parser: argparse.ArgumentParser, *, steps_help: str) -> None:
+    """The budget and run options shared by the commands that run a search: ``--time``,
+    ``--steps``, ``--seed``, ``--run-dir``, ``--json``, ``--quiet``."""
+    parser.add_argument("--time", type=float, metavar="SECONDS",
+                        help="time budget in seconds (default 10 when --steps is not given)")
+    parser.add_argument("--steps", type=int, metavar="N", help=steps_help)
+    parser.add_argument("--seed", type=int, default=0, metavar="N",
+                        help="random seed (default 0)")
+    parser.add_argument("--run-dir", metavar="DIR",
+                        help="run folder (default: a new folder under runs/)")
+    parser.add_argument("--json", action="store_true", help="print one JSON object")
+    parser.add_argument("--quiet", action="store_true", help="no progress bar")
 
 
 def emit_json(obj: object) -> None:

@@ -2,10 +2,12 @@
 
 from __future__ import annotations
 
-__all__ = ["PlaitError", "InputError", "GuardViolation", "EXIT_INPUT", "EXIT_GUARD"]
+__all__ = ["PlaitError", "InputError", "GuardViolation", "EXIT_INPUT", "EXIT_GUARD",
+           "EXIT_INTERRUPTED"]
 
 EXIT_INPUT = 2  # bad input of any kind
 EXIT_GUARD = 3  # an invariant guard failed: the knot would have changed
+EXIT_INTERRUPTED = 130  # SIGINT/SIGTERM after a final checkpoint
 
 
 class PlaitError(Exception):

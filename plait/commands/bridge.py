@@ -6,27 +6,18 @@ import argparse
 import math
 import sys
 
-from plait.cli import add_input_arguments, emit_json, load_input
-from plait.errors import InputError
+from plait.cli import add_input_arguments, add_search_arguments, emit_json, load_input
+from plait.errors import EXIT_INTERRUPTED, InputError
 
 NAME = "bridge"
 HELP = "estimate the bridge number: certified value or lower and upper bounds"
 ORDER = 35
 
-EXIT_INTERRUPTED = 130
-
 
 def configure(p: argparse.ArgumentParser) -> None:
     add_input_arguments(p)
-    p.add_argument("--time", type=float, metavar="SECONDS",
-                   help="search time budget in seconds (default 10 when --steps is not given)")
-    p.add_argument("--steps", type=int, metavar="N",
-                   help="search step budget (0: bounds only); reproducible with --seed")
-    p.add_argument("--seed", type=int, default=0, metavar="N", help="random seed (default 0)")
-    p.add_argument("--run-dir", metavar="DIR",
-                   help="run folder (default: a new folder under runs/)")
-    p.add_argument("--json", action="store_true", help="print one JSON object")
-    p.add_argument("--quiet", action="store_true", help="no progress bar")
+    add_search_arguments(p, steps_help="search step budget (0: bounds only); reproducible "
+                                       "with --seed")
 
 
 def run(args: argparse.Namespace) -> int:

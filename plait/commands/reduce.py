@@ -5,14 +5,12 @@ from __future__ import annotations
 import argparse
 import sys
 
-from plait.cli import add_input_arguments, emit_json, load_input
+from plait.cli import add_input_arguments, add_search_arguments, emit_json, load_input
+from plait.errors import EXIT_INTERRUPTED
 
 NAME = "reduce"
 HELP = "search for a plat with fewest bridges, then fewest crossings"
 ORDER = 30
-
-#: Exit code of a run stopped by SIGINT or SIGTERM (after its final checkpoint).
-EXIT_INTERRUPTED = 130
 
 
 def configure(p: argparse.ArgumentParser) -> None:
@@ -21,20 +19,13 @@ def configure(p: argparse.ArgumentParser) -> None:
 
     p.add_argument("--strategy", choices=STRATEGY_NAMES, default="auto",
                    help="search strategy (default: auto, a portfolio of the others)")
-    p.add_argument("--time", type=float, metavar="SECONDS",
-                   help="time budget in seconds (default 10 when --steps is not given)")
-    p.add_argument("--steps", type=int, metavar="N",
-                   help="step budget; with --seed the run is reproducible bit for bit")
-    p.add_argument("--seed", type=int, default=0, metavar="N", help="random seed (default 0)")
+    add_search_arguments(p, steps_help="step budget; with --seed the run is reproducible bit "
+                                       "for bit")
     p.add_argument("--objective", default="bridges", metavar="NAME",
                    help="bridges (default: fewest bridges, then length), length, "
                         "or weighted[:W] (W letters per bridge)")
-    p.add_argument("--run-dir", metavar="DIR",
-                   help="run folder (default: a new folder under runs/)")
     p.add_argument("--checkpoint-every", type=float, default=3.0, metavar="SECONDS",
                    help="seconds between checkpoints of the search state (default 3)")
-    p.add_argument("--json", action="store_true", help="print one JSON object")
-    p.add_argument("--quiet", action="store_true", help="no progress bar")
 
 
 def report(res, as_json: bool) -> int:
