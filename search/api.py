@@ -411,8 +411,9 @@ def _locate_offense(ctx: SearchContext, node: int, before, level: str) -> str:
     """The first move on the path to ``node`` that is wrong: one whose replay does not
     apply or gives another word than the search used, else the first after which the
     fingerprint differs from the input's (found by bisection)."""
-    recs = ctx.paths.records(node)
-    hashes = ctx.paths.hashes(node)
+    path = ctx.paths.path(node)
+    recs = [rec for rec, _ in path]
+    hashes = [h for _, h in path]
     plat = ctx.start
     plats = [plat]
     for i, (rec, h) in enumerate(zip(recs, hashes, strict=True)):

@@ -116,25 +116,19 @@ class PathStore:
             node = self.add(node, rec, plat if j == len(recs) - 1 else None)
         return node
 
-    def records(self, node: int) -> list:
-        """Move records from the start to ``node``."""
+    def path(self, node: int) -> list[tuple]:
+        """``(record, word hash or None)`` for each move from the start to ``node``."""
         out = []
         while node > 0:
-            parent, rec, _ = self.nodes[node]
-            out.append(rec)
+            parent, rec, h = self.nodes[node]
+            out.append((rec, h))
             node = parent
         out.reverse()
         return out
 
-    def hashes(self, node: int) -> list[int | None]:
-        """Recorded word hashes along the path to ``node`` (same order as records)."""
-        out = []
-        while node > 0:
-            parent, _, h = self.nodes[node]
-            out.append(h)
-            node = parent
-        out.reverse()
-        return out
+    def records(self, node: int) -> list:
+        """Move records from the start to ``node``."""
+        return [rec for rec, _ in self.path(node)]
 
     def depth(self, node: int) -> int:
         d = 0
