@@ -107,7 +107,8 @@ def make_objective(spec: str | Objective | None) -> Objective:
     except ValueError:
         raise InputError(f"objective: weight {arg!r} is not a number") from None
     if not (w >= 0 and w < 1e9):
-        raise InputError(f"objective: weight {arg!r} must be a non-negative number")
+        raise InputError(f"objective: weight {arg!r} must be a number from 0 up to (not "
+                         f"including) 1e9 letters per bridge")
     return Objective("weighted", w)
 
 

@@ -49,9 +49,12 @@ def test_objective_names_and_errors():
     w = make_objective("weighted:5")
     assert w.key(PlatWord(4, (2,))) < w.key(PlatWord(6, ()))
     assert make_objective("weighted:5").spec() == "weighted:5"
-    for bad in ("fewest", "length:3", "weighted:x", "weighted:-1"):
+    for bad in ("fewest", "length:3", "weighted:x", "weighted:-1", "weighted:nan"):
         with pytest.raises(InputError):
             make_objective(bad)
+    # a huge weight is refused with a message that names the allowed range
+    with pytest.raises(InputError, match="up to"):
+        make_objective("weighted:1e308")
 
 
 def test_stabilization_has_isolation_one():
