@@ -9,7 +9,11 @@ from pathlib import Path
 
 from plait.errors import InputError
 
-__all__ = ["write_text_atomic", "write_json_atomic", "append_line_durable"]
+__all__ = ["write_text_atomic", "write_json_atomic", "append_line_durable", "FolderLock",
+           "LOCK_FILE"]
+
+#: Name of the lock file that :class:`FolderLock` holds in a folder.
+LOCK_FILE = ".lock"
 
 
 def write_text_atomic(path: str | os.PathLike, text: str) -> None:
@@ -87,3 +91,44 @@ def _fsync_dir(folder: Path) -> None:
         pass
     finally:
         os.close(fd)
+
+
+class FolderLock:
+    """An exclusive, non-blocking ``flock`` on ``DIR/.lock``: one writer per folder.
+
+    The kernel drops the lock when the process dies, even by kill -9, so a crashed run
+    never leaves a stale lock behind. On a system without ``fcntl`` nothing is locked.
+
+    Parameters
+    ----------
+    folder : path-like
+        The folder to lock (it must exist).
+    busy : str
+        What the :class:`~plait.errors.InputError` raised when another process holds the
+        lock says after the folder's name, e.g. ``"another plait batch is writing this
+        folder"``.
+    """
+
+    def __init__(self, folder: str | os.PathLike, busy: str) -> None:
+        self.path = Path(folder) / LOCK_FILE
+        self.busy = busy
+        self.fd: int | None = None
+
+    def __enter__(self) -> FolderLock:
+        try:
+            import fcntl
+        except ImportError:  # not a POSIX system: no lock
+            return self
+        self.fd = os.open(self.path, os.O_RDWR | os.O_CREAT, 0o644)
+        try:
+            fcntl.flock(self.fd, fcntl.LOCK_EX | fcntl.LOCK_NB)
+        except OSError:
+            os.close(self.fd)
+            self.fd = None
+            raise InputError(f"{self.path.parent}: {self.busy}") from None
+        return self
+
+    def __exit__(self, *exc: object) -> None:
+        if self.fd is not None:
+            os.close(self.fd)
+            self.fd = None

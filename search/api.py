@@ -11,6 +11,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 import plait.moves as _moves
+from plait.atomic import FolderLock
 from plait.convert import to_plat
 from plait.errors import GuardViolation, InputError
 from plait.formats import presentation_from_obj, presentation_to_obj
@@ -544,6 +545,18 @@ def reduce(presentation, *, strategy: str = "auto", time: float | None = None,
     check_params(strategy, params)
     folder = RunFolder(run_dir if run_dir is not None else new_run_dir(runs_root))
     folder.create()
+    with FolderLock(folder.path, _BUSY):
+        return _reduce_locked(folder, pres, start, strategy, time, steps, seed, obj, kinds,
+                              params, checkpoint_every, quiet, handle_signals)
+
+
+# What a second process is told when it finds a run folder locked.
+_BUSY = "another plait process is running this search (a run folder has one writer)"
+
+
+def _reduce_locked(folder, pres, start, strategy, time, steps, seed, obj, kinds, params,
+                   checkpoint_every, quiet, handle_signals) -> ReduceResult:
+    """The body of :func:`reduce` once the new run folder is locked."""
     config = {
         "format": "plait-search-config/1",
         "strategy": strategy, "time": time, "steps": steps, "seed": seed,
@@ -575,6 +588,13 @@ def resume(run_dir, quiet: bool = True, handle_signals: bool = True) -> ReduceRe
     folder = RunFolder(run_dir)
     if not Path(run_dir).is_dir():
         raise InputError(f"run folder not found: {run_dir}")
+    folder.read("config.json")  # a run folder? (never put a lock file in another folder)
+    with FolderLock(folder.path, _BUSY):
+        return _resume_locked(folder, run_dir, quiet, handle_signals)
+
+
+def _resume_locked(folder: RunFolder, run_dir, quiet: bool, handle_signals: bool):
+    """The body of :func:`resume` once the run folder is locked."""
     config = folder.read("config.json")
     inp = folder.read("input.json")
     state = folder.read("state.json")

@@ -21,7 +21,7 @@ from concurrent.futures.process import BrokenProcessPool
 from dataclasses import dataclass
 from pathlib import Path
 
-from plait.atomic import append_line_durable, write_json_atomic, write_text_atomic
+from plait.atomic import FolderLock, append_line_durable, write_json_atomic, write_text_atomic
 from plait.errors import InputError, PlaitError
 from plait.formats import (
     BatchItem,
@@ -71,7 +71,6 @@ CSV_FILE = "results.csv"
 SUMMARY_FILE = "summary.json"
 SVG_FILE = "summary.svg"
 RUNS_DIR = "runs"
-LOCK_FILE = ".lock"
 
 # Row fields that depend on the clock or on where the batch folder lives; everything
 # else in a row is a function of (input line, seed, step budget).
@@ -467,33 +466,9 @@ def _read_items(path: Path) -> list[BatchItem]:
     return items
 
 
-class _FolderLock:
-    """An exclusive ``flock`` on ``DIR/.lock``: one writer per batch folder. The kernel
-    drops it when the process dies, even by kill -9."""
-
-    def __init__(self, folder: Path) -> None:
-        self.path = folder / LOCK_FILE
-        self.fd: int | None = None
-
-    def __enter__(self) -> _FolderLock:
-        try:
-            import fcntl
-        except ImportError:  # not a POSIX system: no lock
-            return self
-        self.fd = os.open(self.path, os.O_RDWR | os.O_CREAT, 0o644)
-        try:
-            fcntl.flock(self.fd, fcntl.LOCK_EX | fcntl.LOCK_NB)
-        except OSError:
-            os.close(self.fd)
-            self.fd = None
-            raise InputError(f"{self.path.parent}: another plait batch is writing this "
-                             "folder") from None
-        return self
-
-    def __exit__(self, *exc: object) -> None:
-        if self.fd is not None:
-            os.close(self.fd)
-            self.fd = None
+def _FolderLock(folder: Path) -> FolderLock:
+    """The batch folder's writer lock (see :class:`plait.atomic.FolderLock`)."""
+    return FolderLock(folder, "another plait batch is writing this folder")
 
 
 def _config(out: Path, input_path: Path | None, *, seed, steps, time_budget, strategy, bridge,

@@ -27,6 +27,7 @@ STATE_FORMAT = "plait-search-state/1"
 #   state.json        everything needed to continue bit for bit: strategy state, random
 #                     generator state, counters, the move-path tree, status
 #   log.jsonl         one JSON object per event (start, best, checkpoint, resume, end)
+#   .lock             held (flock) by the one process running the search (plait.atomic)
 
 
 def new_run_dir(parent: str | os.PathLike = DEFAULT_RUNS, prefix: str = "reduce") -> Path:

@@ -104,3 +104,30 @@ def test_sigint_leaves_a_consistent_run_folder(scrambled, tmp_path, capsys):
     assert events[-1] == "interrupted"
     out = _resume_json(run_dir, capsys)
     _same(out, ref)
+
+
+def test_a_running_search_locks_its_folder(scrambled, tmp_path, capsys):
+    # common practice: one writer per run folder; a second process is refused with exit 2
+    # and a one-line message, and the kernel frees the lock when the writer dies (kill -9)
+    path, ref = scrambled
+    run_dir = tmp_path / "l"
+    proc = _start(path, run_dir)
+    _wait_for_progress(proc, run_dir, STEPS // 10)
+    capsys.readouterr()
+    try:
+        assert main(["resume", str(run_dir), "--quiet"]) == 2
+    finally:
+        proc.kill()
+        proc.wait()
+    err = capsys.readouterr().err
+    assert "another plait process" in err and len(err.strip().splitlines()) == 1
+    out = _resume_json(run_dir, capsys)
+    _same(out, ref)
+
+
+def test_resume_of_a_foreign_folder_leaves_no_lock_file(tmp_path, capsys):
+    # common practice: a tool never writes into a folder that is not its own
+    (tmp_path / "notes.txt").write_text("mine")
+    assert main(["resume", str(tmp_path)]) == 2
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["notes.txt"]
+    assert "not a run folder" in capsys.readouterr().err
