@@ -101,7 +101,11 @@ def main(argv: list[str] | None = None) -> int:
     ap.add_argument("--jobs", type=int, default=1, help="worker processes (default 1)")
     ap.add_argument("--out", help="also write one JSON line per (knot, strategy) here")
     ap.add_argument("--run-root", help="keep the run folders here (default: a temp folder)")
+    ap.add_argument("--resume", action="store_true",
+                    help="keep the rows already in --out and run only the missing ones")
     args = ap.parse_args(argv)
+    if args.resume and not args.out:
+        ap.error("--resume needs --out")
 
     from kidata import knots  # source: KnotInfo via database-knotinfo
 
@@ -115,9 +119,11 @@ def main(argv: list[str] | None = None) -> int:
     index = {k.name: i for i, k in enumerate(all_rows)}
     jobs = [(k.name, k.braid, k.bridge_index, index[k.name], s, args.time, args.seed, root)
             for k in rows_k for s in strategies]
+    results = _kept_rows(args.out, {(j[0], j[4]) for j in jobs}) if args.resume else []
+    done = {(r["knot"], r["strategy"]) for r in results}
+    jobs = [j for j in jobs if (j[0], j[4]) not in done]
     t0 = time.monotonic()
-    results = []
-    out = open(args.out, "w") if args.out else None
+    out = open(args.out, "a" if args.resume else "w") if args.out else None
     try:
         if args.jobs > 1:
             with ProcessPoolExecutor(args.jobs) as ex:
@@ -135,9 +141,31 @@ def main(argv: list[str] | None = None) -> int:
     print()
     print(f"scrambled benchmark: {len(rows_k)} knots <= {args.max_crossings} crossings, "
           f"{args.time:g} s per knot, seed {args.seed}, {args.jobs} job(s), "
-          f"{time.monotonic() - t0:.0f} s in all, {time.strftime('%Y-%m-%d')}")
+          f"{time.monotonic() - t0:.0f} s in all, {time.strftime('%Y-%m-%d')}"
+          + (f" ({len(done)} rows kept from {args.out})" if done else ""))
     print(_table(results, strategies))
     return 0
+
+
+def _kept_rows(path: str, wanted: set[tuple[str, str]]) -> list[dict]:
+    """Rows of an earlier, interrupted run in ``path`` that this run asks for (a torn last
+    line is dropped and rewritten)."""
+    try:
+        with open(path, encoding="utf-8") as fh:
+            lines = fh.readlines()
+    except FileNotFoundError:
+        return []
+    rows = []
+    for line in lines:
+        try:
+            row = json.loads(line)
+        except json.JSONDecodeError:
+            break
+        if (row["knot"], row["strategy"]) in wanted:
+            rows.append(row)
+    with open(path, "w", encoding="utf-8") as fh:
+        fh.writelines(json.dumps(r) + "\n" for r in rows)
+    return rows
 
 
 def _progress(row: dict, out) -> None:
