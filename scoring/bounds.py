@@ -171,12 +171,25 @@ def _not_two_bridge(plat: PlatWord, det: int) -> tuple[bool, str]:
         if ruled is None:
             tried = [invariants[i][0] for i, v in ours.items() if v is not None]
             return False, (f"{_describe(det, q)} agrees with it on every invariant computed "
-                           f"({', '.join(tried)}); it may be 2-bridge")
+                           f"({_summarize(tried)}); it may be 2-bridge")
         used.setdefault(ruled, []).append(_describe(det, q))
     kind = "knot" if comps == 1 else "2-component link"
     listing = "; ".join(f"{', '.join(names)} by the {inv}" for inv, names in used.items())
     return True, (f"every 2-bridge {kind} of determinant {det} is one of {len(classes)} "
                   f"Schubert normal forms (mirrors included) and each differs: {listing}")
+
+
+def _summarize(names: list[str]) -> str:
+    """``names`` for a one-line reason: the homomorphism counts are folded into one item
+    that lists their targets."""
+    prefix = "number of homomorphisms onto "
+    counts = [n[len(prefix):] for n in names if n.startswith(prefix)]
+    rest = [n for n in names if not n.startswith(prefix)]
+    if len(counts) > 1:
+        rest.append(f"numbers of homomorphisms onto {', '.join(counts)}")
+    elif counts:
+        rest.append(prefix + counts[0])
+    return ", ".join(rest)
 
 
 def _determinant(plat: PlatWord) -> int:

@@ -280,3 +280,24 @@ def test_guard_violation_from_api(tmp_path, monkeypatch):
     monkeypatch.setattr(moves, "neighbors", mirror_neighbors)
     with pytest.raises(GuardViolation):
         reduce(_plat_of("4_1"), strategy="beam", steps=30, run_dir=tmp_path / "r")
+
+
+def test_cli_reduce_points_to_the_diagram_route_when_not_minimal(tmp_path, capsys):
+    # The braid 1 2 -1 2 3 -2 3 -2 1 closes to a knot of determinant 3 (a 4-bridge plat);
+    # with no search steps the result stays at 4 bridges against a lower bound of 2, so
+    # the human report says it is not proved minimal and names the diagram route.
+    # Wirtinger number = an independent upper bound (Blair–Kjuchukova–Ozawa 2021).
+    rc = main(["reduce", "--braid", "1 2 -1 2 3 -2 3 -2 1", "--steps", "0",
+               "--run-dir", str(tmp_path / "r"), "--quiet"])
+    out = capsys.readouterr().out
+    assert rc == 0
+    assert "result: 4 bridges (lower bound 2)" in out
+    assert "hint:   not proved minimal; 'plait bridge'" in out
+    # the 2-bridge candidate's homomorphism counts are folded into one item of the reason
+    assert "numbers of homomorphisms onto S4/transposition, S5/transposition" in out
+    assert "number of homomorphisms onto" not in out
+    # a certified result gets no hint
+    capsys.readouterr()
+    assert main(["reduce", "--braid", "1 1 1", "--steps", "60", "--run-dir",
+                 str(tmp_path / "c"), "--quiet"]) == 0
+    assert "hint:" not in capsys.readouterr().out

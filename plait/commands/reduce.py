@@ -44,6 +44,11 @@ def report(res, as_json: bool) -> int:
         print(f"guards: {res.guards}; certificate: {res.certificate}")
         print(f"run:    {res.run_dir} ({res.steps} steps, {res.explored} states, "
               f"{res.elapsed:.1f} s)")
+        if lb < r.bridges and r.bridges >= 3:
+            # the move-graph search can stall above the bridge number; the diagram's
+            # Wirtinger number is an independent upper bound it does not try
+            print("hint:   not proved minimal; 'plait bridge' also builds a plat from the "
+                  "diagram's Wirtinger number, which may need fewer bridges")
     if res.status == "interrupted":
         sys.stderr.write(f"plait: interrupted; continue with: plait resume {res.run_dir}\n")
         return EXIT_INTERRUPTED
