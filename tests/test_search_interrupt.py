@@ -37,6 +37,13 @@ def scrambled(tmp_path_factory):
     return path, ref
 
 
+def _running(path: Path, run_dir: Path) -> subprocess.Popen:
+    """A ``plait reduce`` subprocess that has checkpointed a tenth of its step budget."""
+    proc = _start(path, run_dir)
+    _wait_for_progress(proc, run_dir, STEPS // 10)
+    return proc
+
+
 def _start(path: Path, run_dir: Path) -> subprocess.Popen:
     cmd = [sys.executable, "-m", "plait.cli", "reduce", "--file", str(path), "--strategy",
            "auto", "--steps", str(STEPS), "--seed", str(SEED), "--run-dir", str(run_dir),
@@ -74,8 +81,7 @@ def _same(out: dict, ref) -> None:
 def test_kill_9_then_resume_gives_the_same_verified_result(scrambled, tmp_path, capsys):
     path, ref = scrambled
     run_dir = tmp_path / "k"
-    proc = _start(path, run_dir)
-    _wait_for_progress(proc, run_dir, STEPS // 10)
+    proc = _running(path, run_dir)
     proc.kill()
     assert proc.wait() == -signal.SIGKILL
     out = _resume_json(run_dir, capsys)
@@ -87,8 +93,7 @@ def test_kill_9_then_resume_gives_the_same_verified_result(scrambled, tmp_path, 
 def test_sigint_leaves_a_consistent_run_folder(scrambled, tmp_path, capsys):
     path, ref = scrambled
     run_dir = tmp_path / "i"
-    proc = _start(path, run_dir)
-    _wait_for_progress(proc, run_dir, STEPS // 10)
+    proc = _running(path, run_dir)
     proc.send_signal(signal.SIGINT)
     _, err = proc.communicate(timeout=60)
     assert proc.returncode == 130, err
@@ -111,8 +116,7 @@ def test_a_running_search_locks_its_folder(scrambled, tmp_path, capsys):
     # and a one-line message, and the kernel frees the lock when the writer dies (kill -9)
     path, ref = scrambled
     run_dir = tmp_path / "l"
-    proc = _start(path, run_dir)
-    _wait_for_progress(proc, run_dir, STEPS // 10)
+    proc = _running(path, run_dir)
     capsys.readouterr()
     try:
         assert main(["resume", str(run_dir), "--quiet"]) == 2
