@@ -97,7 +97,8 @@ class FolderLock:
     """An exclusive, non-blocking ``flock`` on ``DIR/.lock``: one writer per folder.
 
     The kernel drops the lock when the process dies, even by kill -9, so a crashed run
-    never leaves a stale lock behind. On a system without ``fcntl`` nothing is locked.
+    never leaves a stale lock behind. On a system without ``fcntl``, or on a file system
+    that refuses ``flock`` (some network mounts), nothing is locked.
 
     Parameters
     ----------
@@ -122,10 +123,15 @@ class FolderLock:
         self.fd = os.open(self.path, os.O_RDWR | os.O_CREAT, 0o644)
         try:
             fcntl.flock(self.fd, fcntl.LOCK_EX | fcntl.LOCK_NB)
-        except OSError:
+        except BlockingIOError:
             os.close(self.fd)
             self.fd = None
             raise InputError(f"{self.path.parent}: {self.busy}") from None
+        except OSError:
+            # a file system without flock (some network mounts): go on unlocked rather
+            # than refuse to run
+            os.close(self.fd)
+            self.fd = None
         return self
 
     def __exit__(self, *exc: object) -> None:

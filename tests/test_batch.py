@@ -415,3 +415,19 @@ def test_random_plats_command_writes_jsonl(tmp_path, capsys):
         p = presentation_from_obj(o)
         assert p.components == 1 and p.length == 10
     assert main(["random-plats", "--bridges", "3-2"]) == 2
+
+
+def test_folder_lock_goes_on_unlocked_where_flock_is_refused(tmp_path, monkeypatch):
+    # common practice: some network file systems refuse flock (ENOLCK); a run then goes on
+    # unlocked instead of reporting a second writer that does not exist
+    import errno
+    import fcntl
+
+    from plait.atomic import FolderLock
+
+    def refuse(fd, op):
+        raise OSError(errno.ENOLCK, "no locks available")
+
+    monkeypatch.setattr(fcntl, "flock", refuse)
+    with FolderLock(tmp_path, "busy") as lock:
+        assert lock.fd is None
