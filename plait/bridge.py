@@ -71,12 +71,10 @@ class BridgeReport:
 
 
 def _pd_list(plat: PlatWord) -> list | None:
-    if not plat.word and plat.components > 1:
-        return None  # the empty code is the unknot, not an unlink
     try:
         return plat_to_pd(plat).to_list()
     except InputError:
-        return None  # a split crossingless component has no PD code
+        return None  # a crossingless component (or unlink) has no PD code
 
 
 def _diagram_bound(pd: PDCode, time_limit: float, what: str):

@@ -306,8 +306,12 @@ def plat_to_pd(plat: PlatWord) -> PDCode:
     Raises
     ------
     InputError
-        For a split crossingless component in a diagram that has crossings.
+        For a split crossingless component in a diagram that has crossings, and for a
+        crossingless plat of several components (the empty code is the unknot).
     """
+    if not plat.word and plat.components > 1:
+        raise InputError(f"pd: the {plat.components}-component unlink without crossings has "
+                         "no PD code (the empty code is the unknot)")
     comps = trace_plat(plat)
     # ends[j] maps a corner ("TL","TR","BL","BR") of crossing j to its edge label,
     # and under_in[j] is the corner where the under-strand enters.

@@ -197,6 +197,8 @@ def check_trace(panel: ET.Element, plat: PlatWord) -> None:
 def check_against_pd(panel: ET.Element, plat: PlatWord) -> None:
     """The broken strand of every letter is the under-strand of that crossing in the PD
     code plait exports (plait.pd.plat_to_pd, whose Jones polynomials match KnotInfo's)."""
+    if not plat.word:
+        return  # no crossing to compare (and an unlink has no PD code)
     pd = plat_to_pd(plat)
     groups = [g for g in panel.iter(NS + "g") if g.get("class") == "crossing"]
     label = 1

@@ -28,9 +28,6 @@ def run(args: argparse.Namespace) -> int:
     pd_note = ""
     if args.pd_out:
         try:
-            if not plat.word and plat.components > 1:  # the empty code would be the unknot
-                raise InputError(f"the {plat.components}-component unlink without crossings "
-                                 "has no PD code")
             info["pd"] = plat_to_pd(plat).to_list()
         except InputError as exc:  # a crossingless component: no PD code exists
             info["pd"] = None
