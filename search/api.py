@@ -543,20 +543,6 @@ def reduce(presentation, *, strategy: str = "auto", time: float | None = None,
     if params is not None and not isinstance(params, dict):
         raise InputError(f"params: expected a dict of strategy parameters, got {params!r}")
     check_params(strategy, params)
-    folder = RunFolder(run_dir if run_dir is not None else new_run_dir(runs_root))
-    folder.create()
-    with FolderLock(folder.path, _BUSY):
-        return _reduce_locked(folder, pres, start, strategy, time, steps, seed, obj, kinds,
-                              params, checkpoint_every, quiet, handle_signals)
-
-
-# What a second process is told when it finds a run folder locked.
-_BUSY = "another plait process is running this search (a run folder has one writer)"
-
-
-def _reduce_locked(folder, pres, start, strategy, time, steps, seed, obj, kinds, params,
-                   checkpoint_every, quiet, handle_signals) -> ReduceResult:
-    """The body of :func:`reduce` once the new run folder is locked."""
     config = {
         "format": "plait-search-config/1",
         "strategy": strategy, "time": time, "steps": steps, "seed": seed,
@@ -564,14 +550,21 @@ def _reduce_locked(folder, pres, start, strategy, time, steps, seed, obj, kinds,
         "checkpoint_every": float(checkpoint_every),
     }
     input_obj = presentation_to_obj(pres)
-    run = _Run(folder, config, start, input_obj, quiet, handle_signals)
-    folder.write("config.json", config)
-    folder.write("input.json", {
-        "presentation": input_obj, "plat": _plat_obj(start),
-        "fingerprint_cheap": _fp_json(run.fp_cheap),
-    })
-    run.fresh()
-    return run.run()
+    folder = RunFolder(run_dir if run_dir is not None else new_run_dir(runs_root))
+    folder.create()
+    with FolderLock(folder.path, _BUSY):
+        run = _Run(folder, config, start, input_obj, quiet, handle_signals)
+        folder.write("config.json", config)
+        folder.write("input.json", {
+            "presentation": input_obj, "plat": _plat_obj(start),
+            "fingerprint_cheap": _fp_json(run.fp_cheap),
+        })
+        run.fresh()
+        return run.run()
+
+
+# What a second process is told when it finds a run folder locked.
+_BUSY = "another plait process is running this search (a run folder has one writer)"
 
 
 def resume(run_dir, quiet: bool = True, handle_signals: bool = True) -> ReduceResult:
@@ -588,29 +581,26 @@ def resume(run_dir, quiet: bool = True, handle_signals: bool = True) -> ReduceRe
     folder = RunFolder(run_dir)
     if not Path(run_dir).is_dir():
         raise InputError(f"run folder not found: {run_dir}")
-    folder.read("config.json")  # a run folder? (never put a lock file in another folder)
-    with FolderLock(folder.path, _BUSY):
-        return _resume_locked(folder, run_dir, quiet, handle_signals)
-
-
-def _resume_locked(folder: RunFolder, run_dir, quiet: bool, handle_signals: bool):
-    """The body of :func:`resume` once the run folder is locked."""
+    # config.json is written once, before anything else: reading it first also makes sure
+    # that no lock file is ever put in a folder that is not a run folder
     config = folder.read("config.json")
-    inp = folder.read("input.json")
-    state = folder.read("state.json")
-    if state.get("format") != STATE_FORMAT:
-        raise InputError(f"{folder.state_path}: unknown state format {state.get('format')!r}")
-    if state["status"] == "guard-failed":
-        raise InputError(f"{run_dir}: the run was stopped by a guard failure; its best.json "
-                         f"holds the last verified plat (see log.jsonl)")
-    p = inp["plat"]
-    start = PlatWord(p["strands"], tuple(p["word"]))
-    pres = presentation_from_obj(inp["presentation"])
-    if isinstance(pres, (PlatWord, ClosedBraid)) and to_plat(pres) != start:
-        raise InputError(f"{folder.input_path}: the start plat does not match the input")
-    run = _Run(folder, config, start, inp["presentation"], quiet, handle_signals)
-    run.restore(state)
-    if state["status"] == "done":
-        run.verified_plat = run.ctx.best
-        return run._result("done")
-    return run.run()
+    with FolderLock(folder.path, _BUSY):
+        inp = folder.read("input.json")
+        state = folder.read("state.json")
+        if state.get("format") != STATE_FORMAT:
+            raise InputError(f"{folder.state_path}: unknown state format "
+                             f"{state.get('format')!r}")
+        if state["status"] == "guard-failed":
+            raise InputError(f"{run_dir}: the run was stopped by a guard failure; its "
+                             f"best.json holds the last verified plat (see log.jsonl)")
+        p = inp["plat"]
+        start = PlatWord(p["strands"], tuple(p["word"]))
+        pres = presentation_from_obj(inp["presentation"])
+        if isinstance(pres, (PlatWord, ClosedBraid)) and to_plat(pres) != start:
+            raise InputError(f"{folder.input_path}: the start plat does not match the input")
+        run = _Run(folder, config, start, inp["presentation"], quiet, handle_signals)
+        run.restore(state)
+        if state["status"] == "done":
+            run.verified_plat = run.ctx.best
+            return run._result("done")
+        return run.run()
