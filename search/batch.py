@@ -466,7 +466,7 @@ def _read_items(path: Path) -> list[BatchItem]:
     return items
 
 
-def _FolderLock(folder: Path) -> FolderLock:
+def _batch_lock(folder: Path) -> FolderLock:
     """The batch folder's writer lock (see :class:`plait.atomic.FolderLock`)."""
     return FolderLock(folder, "another plait batch is writing this folder")
 
@@ -756,7 +756,7 @@ def run_batch(input_path: str | os.PathLike | None, out: str | os.PathLike, *,
         raise InputError(f"file not found: {input_path}" if not inp.exists()
                          else f"{input_path} is not a file")
     out.mkdir(parents=True, exist_ok=True)
-    with _FolderLock(out):
+    with _batch_lock(out):
         cfg, items = _config(out, inp, seed=seed, steps=steps, time_budget=time,
                              strategy=strategy, bridge=bridge, shard=shard,
                              search_options=search_options, resume=resume)
@@ -945,7 +945,7 @@ def merge_batches(folders: list[str | os.PathLike], out: str | os.PathLike) -> d
                    "shards_present": sorted(k for k, _ in seen_shards), "shard_count": n})
     rows = _ordered(all_rows.values())
     out.mkdir(parents=True, exist_ok=True)
-    with _FolderLock(out):
+    with _batch_lock(out):
         write_json_atomic(out_cfg, merged)
         write_text_atomic(out / RESULTS_FILE,
                           "".join(json.dumps(r, separators=(", ", ": ")) + "\n" for r in rows))

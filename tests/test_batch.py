@@ -268,13 +268,13 @@ def test_a_worker_that_dies_costs_only_its_own_item(tmp_path):
 
 
 def test_one_writer_per_folder(tmp_path):
-    from plait.search.batch import _FolderLock
+    from plait.search.batch import _batch_lock
 
     src = tmp_path / "in.jsonl"
     write_input(src, 2)
     out = tmp_path / "out"
     out.mkdir()
-    with _FolderLock(out):
+    with _batch_lock(out):
         with pytest.raises(InputError, match="another plait batch"):
             run_batch(src, out, steps=5, quiet=True, item_fn=toy_item)
 
