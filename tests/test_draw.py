@@ -10,16 +10,12 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from plait.batchplot import batch_summary_svg, read_results
 from plait.cli import main
-from plait.draw import (
-    bezier_point,
-    draw_compare,
-    plat_svg,
-    read_run_folder,
-    split_bezier,
-)
-from plait.pd import plat_to_pd, trace_plat
+from plait.diagrams.pd import plat_to_pd, trace_plat
+from plait.pictures.batch import batch_summary_svg, read_results
+from plait.pictures.draw import draw_compare, plat_svg
+from plait.pictures.geometry import bezier_point, split_bezier
+from plait.pictures.runfolder import read_run_folder
 from plait.word import ClosedBraid, PlatWord
 
 NS = "{http://www.w3.org/2000/svg}"
@@ -180,7 +176,7 @@ def check_connectivity(panel: ET.Element, plat: PlatWord) -> None:
 
 
 def check_trace(panel: ET.Element, plat: PlatWord) -> None:
-    """Colours agree with plait.pd.trace_plat: every strand through letter j that the
+    """Colours agree with plait.diagrams.pd.trace_plat: every strand through letter j that the
     trace puts in one component is drawn in that component's single colour."""
     groups = [g for g in panel.iter(NS + "g") if g.get("class") == "crossing"]
     color_of: dict[int, set[str]] = {}
@@ -196,7 +192,7 @@ def check_trace(panel: ET.Element, plat: PlatWord) -> None:
 
 def check_against_pd(panel: ET.Element, plat: PlatWord) -> None:
     """The broken strand of every letter is the under-strand of that crossing in the PD
-    code plait exports (plait.pd.plat_to_pd, whose Jones polynomials match KnotInfo's)."""
+    code plait exports (plait.diagrams.pd.plat_to_pd, whose Jones polynomials match KnotInfo's)."""
     if not plat.word:
         return  # no crossing to compare (and an unlink has no PD code)
     pd = plat_to_pd(plat)
@@ -530,7 +526,7 @@ def test_batch_summary_accounts_for_every_row(rows):
 
 
 def batch_summary_svg_text(rows):
-    from plait.batchplot import batch_summary
+    from plait.pictures.batch import batch_summary
 
     return batch_summary(rows).to_svg()
 
