@@ -121,12 +121,15 @@ def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtit
     colw = (n2 - 1) * sp
     colgap = 26.0
     col_pitch = left + colw + right + colgap
-    lines = [t for t in (title, subtitle) if t]
-    heads = [(t, 13.0 if i == 0 else 11.0) for i, t in enumerate(lines)]
     per_band = max(1, style.max_columns)
     bands = math.ceil(len(cols) / per_band)
-    width = max([min(len(cols), per_band) * col_pitch - colgap]
-                + [_text_width(t, sz) for t, sz in heads])
+    body_w = min(len(cols), per_band) * col_pitch - colgap
+    # title and subtitle wrap to the width of the columns, so the picture is as wide as
+    # its strands (or as its longest unbreakable piece of text), not as its title
+    heads = [(line, 13.0 if first else 11.0, "title" if first else "subtitle")
+             for first, t in ((True, title), (False, subtitle)) if t
+             for line in _wrap_to(t, body_w, 13.0 if first else 11.0)]
+    width = max([body_w] + [_text_width(t, sz) for t, sz, _ in heads])
     # vertical layout, column-local y measured from the strands' top ends (y = 0) up:
     # caps (or continuation chevrons), position labels, continuation note, column title
     y_pos = -0.75 * cap_h - 5.0
@@ -147,10 +150,9 @@ def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtit
                        "data-length": len(word), "data-bridges": plat.bridges,
                        "data-components": ncomp,
                        "data-colors": " ".join(colors)})
-    for i, (t, sz) in enumerate(heads):
-        panel.add(_text(0, 4 + 13 + 17 * i, t, style, size=sz,
-                        cls="title" if i == 0 else "subtitle", anchor="start",
-                        color=style.ink, weight="bold" if i == 0 else None))
+    for i, (t, sz, cls) in enumerate(heads):
+        panel.add(_text(0, 4 + 13 + 17 * i, t, style, size=sz, cls=cls, anchor="start",
+                        color=style.ink, weight="bold" if cls == "title" else None))
     xs = [0.0] + [(p - 1) * sp for p in range(1, n2 + 1)]  # xs[p], column-local
     for ci, (a, b) in enumerate(cols):
         rows = b - a
@@ -233,6 +235,27 @@ def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtit
 def _text_width(s: str, size: float) -> float:
     # A generous estimate of the width of a line of text in a sans-serif font.
     return 0.62 * size * len(s)
+
+
+_WHOLE = 20  # parts of a title list up to this many characters are not broken
+
+
+def _wrap_to(s: str, width: float, size: float) -> list[str]:
+    # Lines of ``s`` that fit ``width`` by the estimate of _text_width. The parts of a
+    # list "a · b · c" are packed greedily, a line that breaks the list ending in "·".
+    # A short part ("12 crossings") stays whole; a longer one breaks between words. A
+    # word never breaks, so a very narrow picture is as wide as its longest piece.
+    chars = max(1, int(width / _text_width("x", size)))
+    lines: list[str] = []
+    for part in s.split(" \u00b7 "):
+        if lines and len(lines[-1]) + 3 + len(part) <= chars:
+            lines[-1] += " \u00b7 " + part
+            continue
+        if lines:
+            lines[-1] += " \u00b7"
+        lines += textwrap.wrap(part, max(chars, min(len(part), _WHOLE)), break_long_words=False,
+                               break_on_hyphens=False) or [part]
+    return lines
 
 
 def _generator_text(g: int) -> str:
@@ -330,23 +353,24 @@ def _frame(panels: list[tuple[Node, float, float]], style: Style, notes: Iterabl
     margin = 18.0
     arrow_w = 56.0 if between else 30.0
     body_h = max(h for _, _, h in panels)
-    top = margin + (26.0 if heading else 0.0)
     width = margin * 2 + sum(w for _, w, _ in panels) + arrow_w * (len(panels) - 1)
-    # notes wrap to the width of the picture (at least about 60 characters)
+    # the heading wraps to the width of the panels; notes too, but to at least about 60
+    # characters, so a one-line note stays one line (a count and its move kind,
+    # "3 × twist", stay together)
+    heads = _wrap_to(heading, width - 2 * margin, 15) if heading else []
+    top = margin + (26.0 + 19.0 * (len(heads) - 1) if heads else 0.0)
     chars = max(60, int((width - 2 * margin) / _text_width("x", 11)))
-    # (a count and its move kind, "3 × twist", stay on one line)
     notes = [line for s in notes if s
              for line in textwrap.wrap(s.replace(" \u00d7 ", "\u00a0\u00d7\u00a0"), chars)]
-    if heading:
-        width = max(width, margin * 2 + _text_width(heading, 15))
-    width = max([width] + [margin * 2 + _text_width(t, 11) for t in notes])
+    width = max([width] + [margin * 2 + _text_width(t, sz)
+                           for lines, sz in ((heads, 15), (notes, 11)) for t in lines])
     note_h = 16.0 * len(notes) + (6.0 if notes else 0.0)
     height = top + margin + body_h + note_h
     root = Node("svg", {"class": "plait-drawing"})
     root.add(Node("rect", {"class": "background", "x": 0, "y": 0, "width": svg_num(width),
                            "height": svg_num(height), "fill": "#ffffff"}))
-    if heading:
-        root.add(_text(margin, margin + 12, heading, style, size=15, cls="heading",
+    for i, line in enumerate(heads):
+        root.add(_text(margin, margin + 12 + 19 * i, line, style, size=15, cls="heading",
                        anchor="start", color=style.ink, weight="bold"))
     x = margin
     for i, (node, w, _h) in enumerate(panels):

@@ -320,6 +320,38 @@ def test_compact_rows_share_only_far_consecutive_letters():
     assert [rows[y] for y in sorted(rows)] == [[1, 2, 3], [4, 5], [6, 7, 8]]
 
 
+@pytest.mark.parametrize("word,strands", [
+    ("1", 2), ("1 1 -1 1 1", 2), ("1 -2 3", 4), ("1 -2 3 -4 5 -6 7 -8 9 -10 11", 12),
+])
+def test_canvas_follows_the_drawing(word, strands):
+    # A one-column plat used to sit left of a wide empty area: the canvas followed the
+    # title. Now the title wraps to the strands' width, each line either fitting it or
+    # holding one piece of the "bridges · crossings · components" list, and the canvas is
+    # the strands plus gutter and margin unless such a piece is wider.  # common practice
+    char = 0.62 * 13  # the drawing's generous estimate of a bold 13 px character's width
+    plat = PlatWord.from_word([int(t) for t in word.split()], strands)
+    svg = plat_svg(plat)
+    width = float(ET.fromstring(svg).get("width"))
+    (panel,) = panels(svg)
+    px = offset(panel)[0]
+    right = max(px + offset(col)[0] + x
+                for col in panel if col.get("class") == "column"
+                for el in col.iter() if el.get("class") in STRAND_CLASSES
+                for _op, pts in parse_d(el.get("d")) for x, _y in pts)
+    strands_w = right - px + 10.0  # the column, from the panel's left edge to the gutter
+    titles = [t.text for t in panel.iter(NS + "text") if t.get("class") == "title"]
+    b, n, c = plat.bridges, plat.length, plat.components
+    summary = (f"{b} bridge{'s' * (b != 1)} \u00b7 {n} crossing{'s' * (n != 1)} \u00b7 "
+               f"{c} component{'s' * (c != 1)}")
+    assert " ".join(titles) == summary
+    for line in titles:
+        assert char * len(line) <= strands_w + 0.01 or "\u00b7" not in line.rstrip(" \u00b7")
+    assert right + 10.0 + 18.0 - 0.01 <= width
+    assert width <= max(right + 10.0 + 18.0, 2 * 18.0 + char * max(map(len, titles))) + 0.01
+    if strands >= 12:  # wider than every piece of the title: exactly the strands' width
+        assert width == pytest.approx(right + 10.0 + 18.0)
+
+
 def test_before_after_two_panels():
     before = ClosedBraid.from_word((1, 1, 1)).to_plat()
     after = PlatWord(4, (2, 2, 2))
