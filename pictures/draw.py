@@ -99,9 +99,12 @@ def _rows(word: Sequence[int], compact: bool) -> list[list[int]]:
 
 
 def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtitle: str | None,
-           positions: bool, letters: bool, arrows: bool,
-           compact: bool = False) -> tuple[Node, float, float]:
-    """One plat as a group of columns; returns the group, its width and its height."""
+           positions: bool, letters: bool, arrows: bool, compact: bool = False,
+           room: float = 0.0) -> tuple[Node, float, float]:
+    """One plat as a group of columns; returns the group, its width and its height.
+
+    The title and subtitle wrap to the width of the columns, or to ``room`` when the
+    picture is that wide anyway (its notes need it)."""
     if plat.length > MAX_DRAW_LETTERS:
         raise InputError(f"draw: {plat.length} letters is over the limit of {MAX_DRAW_LETTERS} "
                          f"for a picture")
@@ -128,7 +131,7 @@ def _panel(plat: PlatWord, style: Style, *, role: str, title: str | None, subtit
     # its strands (or as its longest unbreakable piece of text), not as its title
     heads = [(line, 13.0 if first else 11.0, "title" if first else "subtitle")
              for first, t in ((True, title), (False, subtitle)) if t
-             for line in _wrap_to(t, body_w, 13.0 if first else 11.0)]
+             for line in _wrap_to(t, max(body_w, room), 13.0 if first else 11.0)]
     width = max([body_w] + [_text_width(t, sz) for t, sz, _ in heads])
     # vertical layout, column-local y measured from the strands' top ends (y = 0) up:
     # caps (or continuation chevrons), position labels, continuation note, column title
@@ -440,7 +443,11 @@ def draw_plat(plat: PlatWord, *, positions: bool = False, letters: bool = False,
        and links", Canad. J. Math. 28 (1976): the plat closure drawn here.
     """
     style = _with_rows(style, max_rows)
-    panel = _panel(plat, style, role="plat", title=title or _summary(plat),
+    notes = [s for s in notes if s]
+    # the notes wrap to about 60 characters at the least (see _frame); so wide a picture
+    # has room for the title on fewer lines
+    room = max((_text_width(s[:60], 11) for s in notes), default=0.0)
+    panel = _panel(plat, style, role="plat", title=title or _summary(plat), room=room,
                    subtitle=_summary(plat) if title else None, positions=positions,
                    letters=letters, arrows=arrows, compact=compact)
     drawing = _frame([panel], style, notes, None)
