@@ -1,4 +1,4 @@
-"""Batch folders on disk: its files, reading the items, appending and summarizing rows."""
+"""The files of a batch folder: its items read in, its rows written out and summarized."""
 
 from __future__ import annotations
 
@@ -13,11 +13,7 @@ from pathlib import Path
 
 from plait.atomic import FolderLock, write_json_atomic, write_text_atomic
 from plait.errors import InputError
-from plait.formats import (
-    BatchItem,
-    input_file_errors,
-    iter_batch_lines,
-)
+from plait.formats import BatchItem, input_file_errors, iter_batch_lines
 
 __all__ = [
     "BATCH_FORMAT",

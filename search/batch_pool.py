@@ -14,12 +14,10 @@ from dataclasses import dataclass
 from pathlib import Path
 
 from plait.errors import InputError, PlaitError
-from plait.formats import (
-    BatchItem,
-    presentation_from_obj,
-)
+from plait.formats import BatchItem, presentation_from_obj
 
-__all__ = ["ItemTask", "search_item", "execute_task", "input_error_row", "run_local"]
+__all__ = ["ItemTask", "search_item", "execute_task", "input_error_row", "run_local",
+           "raise_on_sigterm", "restore_sigterm"]
 
 
 @dataclass(frozen=True)
