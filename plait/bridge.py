@@ -31,6 +31,9 @@ class BridgeReport:
         plat's own diagram).
     search : dict
         The JSON of the search run (:meth:`plait.search.api.ReduceResult.to_json`).
+    factors : list of plait.composite.Factor
+        The factors of a composite knot, when a confirmed decomposing circle was found
+        (:func:`plait.composite.with_factors`); empty otherwise.
     """
 
     lower: int
@@ -40,6 +43,7 @@ class BridgeReport:
     result: PlatWord
     wirtinger: Wirtinger | None
     search: dict = field(default_factory=dict)
+    factors: list = field(default_factory=list)
 
     @property
     def certified(self) -> bool:
@@ -67,6 +71,7 @@ class BridgeReport:
             "proven_minimal": w.proven_minimal,
         }
         obj["pd"] = _pd_list(r)
+        obj["factors"] = [f.to_json() for f in self.factors]
         return obj
 
 
@@ -158,7 +163,19 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
     lower = res.lower
     if lower > upper:  # pragma: no cover - would be a contradiction between theorems
         raise AssertionError(f"lower bound {lower} exceeds upper bound {upper}")
-    return BridgeReport(lower, upper, list(res.reasons), upper_reasons, best, wirt, search)
+    rep = BridgeReport(lower, upper, list(res.reasons), upper_reasons, best, wirt, search)
+    if best.components == 1 and res.status != "interrupted":
+        # a composite knot: bound its factors and add (Schubert 1954)
+        from plait.composite import with_factors
+
+        diagrams = [("the input diagram", pres if isinstance(pres, PDCode) else None),
+                    ("the start plat's diagram", _pd_or_none(start)),
+                    ("the best plat's diagram", pd)]
+        rep = with_factors(rep, diagrams, time=time, steps=steps, seed=seed,
+                           wirtinger_time=wirtinger_time, handle_signals=handle_signals,
+                           runs_root=runs_root,
+                           run_dir=search.get("run_dir") or None)
+    return rep
 
 
 def _pd_or_none(plat: PlatWord) -> PDCode | None:
