@@ -168,7 +168,8 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
         # a composite knot: bound its factors and add (Schubert 1954)
         from plait.composite import with_factors
 
-        diagrams = [("the input diagram", pres if isinstance(pres, PDCode) else None),
+        given = pres if isinstance(pres, PDCode) else _pd_or_none(to_plat(pres))
+        diagrams = [("the input diagram", given),
                     ("the start plat's diagram", _pd_or_none(start)),
                     ("the best plat's diagram", pd)]
         rep = with_factors(rep, diagrams, time=time, steps=steps, seed=seed,
