@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from itertools import chain
 
 from plait.errors import InputError
 from plait.formats import Presentation
@@ -166,12 +167,12 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
     rep = BridgeReport(lower, upper, list(res.reasons), upper_reasons, best, wirt, search)
     if best.components == 1 and res.status != "interrupted":
         # a composite knot: bound its factors and add (Schubert 1954)
-        from plait.composite import with_factors
+        from plait.composite import visited_diagrams, with_factors
 
         given = pres if isinstance(pres, PDCode) else _pd_or_none(to_plat(pres))
-        diagrams = [("the input diagram", given),
-                    ("the start plat's diagram", _pd_or_none(start)),
-                    ("the best plat's diagram", pd)]
+        diagrams = chain([("the input diagram", given),
+                          ("the start plat's diagram", _pd_or_none(start)),
+                          ("the best plat's diagram", pd)], visited_diagrams(res.certificate))
         rep = with_factors(rep, diagrams, time=time, steps=steps, seed=seed,
                            wirtinger_time=wirtinger_time, handle_signals=handle_signals,
                            runs_root=runs_root,

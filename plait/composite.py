@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Iterable, Iterator, Sequence
 from dataclasses import dataclass, field
 from fractions import Fraction
 
@@ -19,10 +19,15 @@ __all__ = [
     "pd_connected_sum",
     "pd_faces",
     "split_pd",
+    "visited_diagrams",
+    "with_factors",
 ]
 
 # Candidate circles tried per diagram (each costs two Jones polynomials of the sides).
 MAX_CANDIDATES = 200
+
+# Plats sampled along a search's certificate path to look for circles in.
+VISITED_SAMPLE = 12
 
 # A side of a decomposing circle with fewer crossings than this is an unknotted tangle:
 # every nontrivial knot has crossing number at least 3.
@@ -289,8 +294,13 @@ def decompose(pd: PDCode, max_candidates: int = MAX_CANDIDATES) -> list[PDCode]:
             a, b = split_pd(pd, e, f)
         except InputError:
             continue
-        va, vb = pd_jones(a), pd_jones(b)
-        if va == _ONE or vb == _ONE:
+        # the smaller side first: it is the cheaper one and the likelier to be unknotted
+        va = pd_jones(a) if a.length <= b.length else None
+        vb = pd_jones(b)
+        if vb == _ONE:
+            continue
+        va = pd_jones(a) if va is None else va
+        if va == _ONE:
             continue
         if whole is None:
             whole = pd_jones(pd)
@@ -371,19 +381,62 @@ def connected_sum(plats: list[PlatWord]) -> PlatWord:
     return PlatWord(strands, tuple(word))
 
 
+def visited_diagrams(certificate, sample: int = VISITED_SAMPLE
+                     ) -> Iterator[tuple[str, PDCode]]:
+    """Diagrams of plats a search visited: an even sample of the plats along its
+    certificate (the path of moves from the start plat to the best one).
+
+    Parameters
+    ----------
+    certificate : path-like
+        A certificate file of :func:`plait.search.reduce`.
+    sample : int
+        Most plats taken (the start and the end of the path are left out: the caller
+        has them).
+
+    Yields
+    ------
+    (description, PDCode)
+        Lazily, in path order; a plat whose closure has a crossingless component is
+        skipped.
+    """
+    from plait.moves import load_certificate
+    from plait.moves.graph import apply_move
+    from plait.pd import plat_to_pd
+
+    try:
+        cert = load_certificate(certificate)
+    except (InputError, OSError):
+        return
+    n = len(cert.records)
+    if n < 2 or sample < 1:
+        return
+    want = {round(i * n / (sample + 1)) for i in range(1, sample + 1)} - {0, n}
+    cur = cert.start
+    for i, rec in enumerate(cert.records, start=1):
+        cur = apply_move(cur, rec)
+        if i in want and cur.word:
+            try:
+                pd = plat_to_pd(cur)
+            except InputError:
+                continue
+            yield f"the plat after move {i} of {n} of the search", pd
+
+
 def _invertible_known(f: Factor) -> bool:
     # 2-bridge knots (and the unknot) are invertible: Schubert's normal form of S(p, q)
     # is carried to itself with its orientation reversed by a rotation (Schubert 1956)
     return f.upper <= 2
 
 
-def with_factors(report, diagrams: Sequence[tuple[str, PDCode | None]], *, time=None,
+def with_factors(report, diagrams: Iterable[tuple[str, PDCode | None]], *, time=None,
                  steps=None, seed: int = 0, wirtinger_time: float = 10.0,
                  handle_signals: bool = True, runs_root=None, run_dir=None):
     """Bound a composite knot through its factors (Schubert's additivity).
 
-    The diagrams are searched for confirmed decomposing circles (:func:`decompose`); the
-    one giving the most factors is used. Each factor gets its own bridge report
+    The diagrams are searched in order for confirmed decomposing circles
+    (:func:`decompose`); the first that splits is used (a factor that splits further in
+    another diagram is split in its own report). Each factor gets its own bridge report
     (:func:`plait.bridge.bridge_report`, which splits it again when its best plat's
     diagram shows another circle), and the bounds combine as
     ``b(K1 # ... # Kk) = b(K1) + ... + b(Kk) - (k - 1)``: the factors' lower bounds give
@@ -395,8 +448,9 @@ def with_factors(report, diagrams: Sequence[tuple[str, PDCode | None]], *, time=
     ----------
     report : plait.bridge.BridgeReport
         The knot's own report; returned updated (``factors`` filled, bounds improved).
-    diagrams : sequence of (description, PDCode or None)
-        Diagrams of the knot to look for circles in.
+    diagrams : iterable of (description, PDCode or None)
+        Diagrams of the knot to look for circles in (read lazily, up to the first that
+        splits).
     time, steps, seed, wirtinger_time, handle_signals, runs_root
         As for :func:`plait.bridge.bridge_report`; the time is shared among the factors.
     run_dir : path-like, optional
@@ -420,8 +474,9 @@ def with_factors(report, diagrams: Sequence[tuple[str, PDCode | None]], *, time=
         if pd is None:
             continue
         fs = decompose(pd)
-        if len(fs) > 1 and (best is None or len(fs) > len(best[1])):
+        if len(fs) > 1:
             best = (what, fs)
+            break
     if best is None:
         return report
     what, fs = best

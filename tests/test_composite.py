@@ -176,3 +176,22 @@ def test_unknotted_side_is_not_a_factor():
     pd = pd_connected_sum(_pd("3_1"), unknot)
     assert decomposing_circles(pd)
     assert decompose(pd) == [pd]
+
+
+def test_visited_diagrams_are_the_knot(tmp_path):
+    # every sampled plat along the search's certificate is a diagram of the same knot
+    # (Birman 1976: the moves keep the plat closure); the scrambled sum is split in them
+    # source: KnotInfo via database-knotinfo (braid_notation, jones_polynomial)
+    import plait.moves as moves
+    from plait.composite import visited_diagrams
+    from plait.search import reduce
+
+    p = connected_sum([_braid_plat("3_1"), _braid_plat("4_1")])
+    scr, _ = moves.scramble(p, seed=3, length_factor=3, stabilizations=1)
+    r = reduce(scr, steps=60, seed=0, run_dir=tmp_path / "r", handle_signals=False)
+    want = jones_product([knot("3_1").jones, knot("4_1").jones])
+    seen = list(visited_diagrams(r.certificate))
+    assert 1 <= len(seen) <= 12
+    for _what, pd in seen:
+        assert pd_jones(pd) == want
+    assert any(len(decompose(pd)) == 2 for _w, pd in seen)
