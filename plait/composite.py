@@ -295,12 +295,12 @@ def decompose(pd: PDCode, max_candidates: int = MAX_CANDIDATES) -> list[PDCode]:
         except InputError:
             continue
         # the smaller side first: it is the cheaper one and the likelier to be unknotted
-        va = pd_jones(a) if a.length <= b.length else None
-        vb = pd_jones(b)
-        if vb == _ONE:
-            continue
-        va = pd_jones(a) if va is None else va
+        small, big = (a, b) if a.length <= b.length else (b, a)
+        va = pd_jones(small)
         if va == _ONE:
+            continue
+        vb = pd_jones(big)
+        if vb == _ONE:
             continue
         if whole is None:
             whole = pd_jones(pd)
