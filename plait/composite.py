@@ -352,9 +352,9 @@ def connected_sum(plats: list[PlatWord]) -> PlatWord:
     ``i`` at the bottom run straight into plat ``i + 1``. The other strands of one plat
     pass beside the other's letters without crossing them, so a circle around plat ``i``
     meets the diagram in exactly those two strands: the closure is the connected sum.
-    Each component keeps the orientation its plat gives it (components start at the
-    left end of their first cap, going down), except that the factors are joined as
-    the strands meet; knots that are not invertible may enter with either orientation.
+    The join does not choose orientations: for knots the closure is K1 # K2 or
+    K1 # (K2 reversed), one knot unless both are non-invertible; either way it has
+    ``b(K1) + b(K2) - 1`` bridges at best (Schubert 1954).
 
     Parameters
     ----------
