@@ -32,6 +32,7 @@ __all__ = [
     "describe_claim",
     "tables_installed",
     "name_columns",
+    "named_search_item",
 ]
 
 INSTALL_HINT = ("naming needs the KnotInfo tables: pip install 'plait[tables]' (the "
@@ -580,6 +581,20 @@ def describe_claim(meta: dict) -> str:
     tab = meta["table"]
     return (f"{tab['name']}{' (mirror)' if tab.get('mirror') else ''}: the end plat is the "
             f"table's diagram of {tab['entry']} ({tab.get('source', TABLE_SOURCE)})")
+
+
+def named_search_item(task) -> dict:
+    """Batch item function of ``plait batch --name``: the usual search row
+    (:func:`plait.search.batch.search_item`) plus :func:`name_columns` of its result,
+    with the naming certificate in the item's run folder under ``name/``."""
+    from plait.search.batch import search_item
+
+    row = search_item(task)
+    res = row.get("result") or {}
+    plat = PlatWord(res["strands"], tuple(res["word"]))
+    row.update(name_columns(plat, time=task.time or 10.0, seed=task.seed,
+                            out_dir=Path(task.run_dir) / "name"))
+    return row
 
 
 def name_columns(plat: PlatWord, *, time: float = 10.0, seed: int = 0, out_dir=None) -> dict:
