@@ -86,7 +86,8 @@ def _inverse_step(prev: list[int], sp: int, rec: MoveRecord, nxt: list[int],
     if kind in PAIRING_KINDS:
         side, i, e = a
         tries = [MoveRecord(kind, (side, i, -e))]
-    elif kind == "braid":
+    elif kind in ("braid", "turn", "flype"):
+        # involutions: a braid relation, a half turn, a flype at the same cut
         tries = [rec]
     elif kind == "stab":
         j, p, _g = a

@@ -15,7 +15,7 @@ __all__ = ["meet_in_the_middle", "connect"]
 
 #: Kinds tried at every state: far commutation is left out, since the canonical form
 #: already identifies words that differ by it.
-MEET_KINDS = DEFAULT_KINDS - frozenset({"commute"})
+MEET_KINDS = (DEFAULT_KINDS | frozenset({"turn", "flype"})) - frozenset({"commute"})
 
 Key = tuple[int, tuple[int, ...]]
 
@@ -37,6 +37,24 @@ def _path(parent: dict[Key, tuple[Key | None, list[MoveRecord]]], k: Key) -> lis
     return out
 
 
+def _steps(p: PlatWord, ks: frozenset[str], max_len: int, compound: bool):
+    # (records, plat) for every move of the given kinds, and, when ``compound``, every
+    # insertion of a cancelling pair x x^-1 followed by a braid relation that uses one of
+    # the inserted letters (alone, an insertion is undone by the canonical form)
+    for rec, length in neighbor_deltas(p, ks):
+        if length <= max_len + 4:
+            yield [rec], apply_move(p, rec)
+    if not compound or p.length + 2 > max_len + 2:
+        return
+    for rec, _len in neighbor_deltas(p, ("insert",)):
+        q = apply_move(p, rec)
+        pos = rec.args[0]
+        for b, _l in neighbor_deltas(q, ("braid",)):
+            t = b.args[0]
+            if t + 2 >= pos and t <= pos + 1:
+                yield [rec, b], apply_move(q, b)
+
+
 def meet_in_the_middle(
     a: PlatWord,
     b: PlatWord,
@@ -45,6 +63,9 @@ def meet_in_the_middle(
     max_states: int = 200_000,
     slack: int = 2,
     kinds: Iterable[str] | None = None,
+    compound: bool = True,
+    roots_a: list[MoveRecord] | None = None,
+    roots_b: list[MoveRecord] | None = None,
 ) -> tuple[list[MoveRecord], list[MoveRecord]] | None:
     """Search from both plats at once until their canonical forms meet.
 
@@ -52,7 +73,9 @@ def meet_in_the_middle(
     (:func:`plait.moves.canonical`): a node's children are the canonical forms of its
     neighbours in the move graph. Words longer than the longer start plus ``slack`` and
     plats with more bridges than the larger start are not visited. The side with the
-    smaller frontier is expanded next.
+    smaller frontier is expanded next. ``roots_a`` (``roots_b``) is a path from ``a``
+    (``b``): every word along it is a root of that side's tree as well (its length not
+    limited by ``slack``).
 
     Returns
     -------
@@ -68,17 +91,34 @@ def meet_in_the_middle(
     """
     ks = MEET_KINDS if kinds is None else frozenset(kinds)
     deadline = _time.monotonic() + time_limit
-    ca, ra = canonical_with_moves(a)
-    cb, rb = canonical_with_moves(b)
-    # parent[s][key] = (parent key or None at the root, records from the parent's word
-    # (from the start plat at the root) to this canonical word)
-    parent: list[dict[Key, tuple[Key | None, list[MoveRecord]]]] = [
-        {_key(ca): (None, list(ra))}, {_key(cb): (None, list(rb))}]
-    if _key(ca) == _key(cb):
-        return list(ra), list(rb)
-    frontier: list[list[PlatWord]] = [[ca], [cb]]
-    max_len = max(ca.length, cb.length) + slack
-    max_strands = max(ca.strands, cb.strands)
+    # parent[s][key] = (parent key or None at a root, records from the parent's word
+    # (from the start plat at a root) to this canonical word)
+    parent: list[dict[Key, tuple[Key | None, list[MoveRecord]]]] = [{}, {}]
+    frontier: list[list[PlatWord]] = [[], []]
+    ends: list[PlatWord] = []  # the canonical form at the end of each side's path
+    for side, (start, extra) in enumerate(((a, roots_a), (b, roots_b))):
+        # every word along a known path from the start is a root too
+        roots = [(start, [])]
+        if extra:
+            cur, done = start, []
+            for rec in extra:
+                cur = apply_move(cur, rec)
+                done.append(rec)
+                roots.append((cur, list(done)))
+        for plat, recs in roots:
+            c, rc = canonical_with_moves(plat)
+            k = _key(c)
+            if k not in parent[side]:
+                parent[side][k] = (None, [*recs, *rc])
+                frontier[side].append(c)
+        ends.append(frontier[side][-1])
+    common = [k for k in parent[0] if k in parent[1]]
+    if common:
+        return _path(parent[0], common[0]), _path(parent[1], common[0])
+    max_len = max(e.length for e in ends) + slack
+    max_strands = max(e.strands for e in ends)
+    frontier = [[p for p in f if p.length <= max_len and p.strands <= max_strands]
+                for f in frontier]
     checks = 0
     while frontier[0] and frontier[1]:
         s = 0 if len(frontier[0]) <= len(frontier[1]) else 1
@@ -86,13 +126,10 @@ def meet_in_the_middle(
         nxt: list[PlatWord] = []
         for p in frontier[s]:
             pk = _key(p)
-            for rec, length in neighbor_deltas(p, ks):
-                if length > max_len + 4:
-                    continue
+            for recs, q in _steps(p, ks, max_len, compound):
                 checks += 1
                 if checks % 256 == 0 and _time.monotonic() > deadline:
                     return None
-                q = apply_move(p, rec)
                 if q.strands > max_strands:
                     continue
                 cq, rq = canonical_with_moves(q)
@@ -101,7 +138,7 @@ def meet_in_the_middle(
                 k = _key(cq)
                 if k in mine:
                     continue
-                mine[k] = (pk, [rec, *rq])
+                mine[k] = (pk, [*recs, *rq])
                 if k in other:
                     pa = _path(parent[0], k)
                     pb = _path(parent[1], k)
@@ -113,9 +150,10 @@ def meet_in_the_middle(
     return None
 
 
-def connect(a: PlatWord, b: PlatWord, **options) -> list[MoveRecord] | None:
+def connect(a: PlatWord, b: PlatWord, **options) -> list[MoveRecord] | None:  # noqa: D417
     """Records taking ``a`` to ``b`` (forward moves from ``a`` to the meeting word, then
-    the inverted moves of ``b``'s side), or None when
+    the inverted moves of ``b``'s side; ``options`` go to :func:`meet_in_the_middle`),
+    or None when
     :func:`meet_in_the_middle` finds no meeting within its budget."""
     found = meet_in_the_middle(a, b, **options)
     if found is None:

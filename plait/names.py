@@ -468,7 +468,6 @@ def name_plat(pres, *, time: float = 30.0, seed: int = 0, out_dir=None,
     from plait.convert import to_plat
     from plait.formats import presentation_to_obj
     from plait.moves.certificate import write_certificate
-    from plait.moves.invert import invert_path
     from plait.moves.meet import connect
     from plait.moves.replay import replay
 
@@ -502,13 +501,12 @@ def name_plat(pres, *, time: float = 30.0, seed: int = 0, out_dir=None,
                 cand.note = f"table plat not built: {exc}"
                 continue
             _r2, _s, tab_recs = _reduce_with_records(tab, 0.25 * share, seed, tmp)
-            tab_red = _r2.result
             left = max(0.1, min(share * 0.75, deadline - _time.monotonic()))
-            mid = connect(reduced, tab_red, time_limit=left)
-            if mid is None:
+            # both reduction paths are roots: any word on either may be where they meet
+            path = connect(start, tab, time_limit=left, roots_a=in_recs, roots_b=tab_recs)
+            if path is None:
                 cand.note = "no move path found within the time budget"
                 continue
-            path = in_recs + mid + invert_path(tab, tab_recs)
             check = replay(start, path)
             if not check.ok or check.final != tab:
                 cand.note = f"path did not replay ({check.reason})"  # pragma: no cover
