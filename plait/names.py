@@ -40,7 +40,7 @@ INSTALL_HINT = ("naming needs the KnotInfo tables: pip install 'plait[tables]' (
 TABLE_SOURCE = "KnotInfo knots up to 13 crossings and LinkInfo links up to 11 crossings"
 MAX_KNOT_CROSSINGS = 13
 MAX_LINK_CROSSINGS = 11
-_CACHE_VERSION = 3
+_CACHE_VERSION = 4
 
 # Polynomials are dicts {exponent: coefficient}; exponents are Fractions of t (links have
 # half-integer exponents; LinkInfo writes them in x = t^(1/2)).
@@ -67,8 +67,10 @@ class TableEntry:
         Alexander polynomial of a knot (None for links).
     bridge : (int, int) or None
         Bridge index, or its range, of a knot (None for links).
-    pd : list of list of int
-        The table's PD code.
+    pd_text : str
+        The table's PD code (``pd`` parses it).
+    amphichiral : bool
+        A knot that KnotInfo lists as amphicheiral (isotopic to its mirror image).
     """
 
     name: str
@@ -81,6 +83,7 @@ class TableEntry:
     alexander2: tuple[tuple[int, int], ...] | None  # (exponent, coefficient) of a knot
     bridge: tuple[int, int] | None
     pd_text: str  # the PD code as compact JSON text (parsed on demand)
+    amphichiral: bool = False  # a knot the table lists as equal to its mirror image
 
     @property
     def pd(self) -> list:
@@ -162,7 +165,7 @@ def _pd_text(text: str) -> str:
 
 def _read_rows() -> list[list]:
     # compact rows for the cache: [name, family, crossings, components, det, sig,
-    # jones [[num, den, c]...], alexander or None, bridge or None, pd]
+    # jones [[num, den, c]...], alexander or None, bridge or None, pd, amphichiral]
     try:
         from database_knotinfo import link_list
     except ImportError:
@@ -186,7 +189,8 @@ def _read_rows() -> list[list]:
                      poly_json(parse_table_poly(k["jones_polynomial"])),
                      poly_json(parse_table_poly(k["alexander_polynomial"])),
                      list(_bridge_range(k["bridge_index"]) or []) or None,
-                     _pd_text(k["pd_notation"])])
+                     _pd_text(k["pd_notation"]),
+                     c == 0 or "amphicheiral" in (k.get("symmetry_type") or "")])
     for k in link_list(proper_links=True):
         try:
             c = int(k["crossing_number"])
@@ -200,7 +204,7 @@ def _read_rows() -> list[list]:
         rows.append([k["name"], family, c, comps, int(k["determinant"]),
                      int(sig) if sig not in (None, "") else None,
                      poly_json(parse_table_poly(k["jones_polynomial"], "x")),
-                     None, None, _pd_text(k["pd_notation_vector"])])
+                     None, None, _pd_text(k["pd_notation_vector"]), False])
     return rows
 
 
@@ -245,7 +249,8 @@ def load_table() -> tuple[TableEntry, ...]:
 
     return tuple(TableEntry(r[0], r[1], r[2], r[3], r[4], r[5], poly2(r[6], 2),
                             poly2(r[7], 1) if r[7] is not None else None,
-                            tuple(r[8]) if r[8] else None, r[9]) for r in rows)
+                            tuple(r[8]) if r[8] else None, r[9], bool(r[10]))
+                 for r in rows)
 
 
 @cache
@@ -352,7 +357,8 @@ def candidates(plat: PlatWord, bridge_bounds: tuple[int, int] | None = None,
     out: list[Candidate] = []
     seen: set[tuple[str, bool]] = set()
     for e in _by_determinant().get((inv["components"], inv["determinant"]), []):
-        for mirror in (False, True):
+        # an amphichiral knot is its own mirror image: one candidate
+        for mirror in ((False,) if e.amphichiral else (False, True)):
             if (_mirror2(e.jones2) if mirror else e.jones2) not in jones_in:
                 continue
             checked = ["jones", "determinant"]
