@@ -37,7 +37,8 @@ def add_input_arguments(parser: argparse.ArgumentParser, *, required: bool = Tru
                    help="DT code of a knot, e.g. '4 6 2' or '[4, 8, -12, 2, -14, -16, -6, -10]' "
                         "(negative: the crossing breaks the alternating pattern). A DT code fixes "
                         "a prime knot only up to mirror image: plait builds the diagram whose "
-                        "first crossing is positive")
+                        "first crossing is positive (for KnotInfo's codes up to 12 crossings, "
+                        "the chirality KnotInfo lists)")
     g.add_argument("--gauss", metavar="CODE",
                    help="Gauss code: '1 -2 3 -1 2 -3' (+ over, - under; read up to mirror image "
                         "when planarity fixes the diagram, the first crossing made positive) or "

@@ -28,7 +28,8 @@ MAX_CODE_CROSSINGS = 2_000
 #: What the help and the output say about the mirror image.
 MIRROR_NOTE = ("a DT code (or a Gauss code without crossing signs) fixes a prime knot only "
                "up to mirror image; plait builds the diagram whose first crossing (the one "
-               "met first along the code) is positive")
+               "met first along the code) is positive, which for KnotInfo's DT codes of knots "
+               "up to 12 crossings is the chirality KnotInfo lists")
 
 # A Gauss code is held as a list of components; each component is the list of its visits
 # in order of travel, a visit being (crossing id, over) with ``over`` True when the strand
@@ -64,7 +65,8 @@ class Realized:
         if not self.mirror_chosen:
             return "the code gives crossing signs: the diagram is fixed, mirror included"
         return ("the code fixes the knot only up to mirror image; built the mirror image "
-                f"whose first crossing is positive (writhe {sum(self.signs):+d})")
+                f"whose first crossing is positive (writhe {sum(self.signs):+d}; for KnotInfo's "
+                "DT codes up to 12 crossings that is the chirality KnotInfo lists)")
 
 
 # -- parsing ---------------------------------------------------------------------------
