@@ -444,7 +444,7 @@ def name_plat(pres, *, time: float = 30.0, seed: int = 0, out_dir=None,
               max_candidates: int = 4, input_obj: dict | None = None) -> NameResult:
     """Name the knot or link of a presentation from the table, with proofs.
 
-    Steps: reduce the input (a share of ``time``), compute its invariants and the table
+    Steps: reduce the input (55% of ``time``), compute its invariants and the table
     candidates (:func:`candidates`); for each candidate build the table entry's plat from
     its PD code (mirrored when the input matches the mirror image), reduce it, and look
     for a move path between the two reduced plats by meeting in the middle over
@@ -484,7 +484,7 @@ def name_plat(pres, *, time: float = 30.0, seed: int = 0, out_dir=None,
     if input_obj is None:
         input_obj = presentation_to_obj(pres)
     with tempfile.TemporaryDirectory(prefix="plait-name-") as tmp:
-        res, s0, in_recs = _reduce_with_records(start, 0.35 * time, seed, tmp)
+        res, s0, in_recs = _reduce_with_records(start, 0.55 * time, seed, tmp)
         reduced = res.result
         if s0 != start:  # pragma: no cover - reduce starts from to_plat of the input
             raise RuntimeError("reduction certificate does not start at the input plat")
