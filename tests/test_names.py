@@ -69,7 +69,7 @@ def test_name_of_a_table_knots_own_braid(named_5_2, capsys):
     # source: KnotInfo via database-knotinfo: the braid of 5_2 is named 5_2, not mirrored,
     # with a certificate that plait verify replays
     out, braid = named_5_2
-    assert main(["name", "--braid", braid, "--time", "60", "--out", str(out)]) == 0
+    assert main(["name", "--braid", braid, "--time", "30", "--out", str(out)]) == 0
     text = capsys.readouterr().out
     first = text.splitlines()[0]
     assert first.startswith("5_2 — certified,") and first.endswith("moves"), text
@@ -112,7 +112,7 @@ def test_tampered_naming_certificate_is_rejected(named_5_2, tmp_path, capsys):
 
 def test_name_json_output(tmp_path, capsys):
     # source: KnotInfo via database-knotinfo (3_1's braid notation [1, 1, 1])
-    assert main(["name", "--braid", "1 1 1", "--time", "30", "--json", "--out",
+    assert main(["name", "--braid", "1 1 1", "--time", "10", "--json", "--out",
                  str(tmp_path)]) == 0
     obj = json.loads(capsys.readouterr().out)
     (c,) = obj["candidates"]
