@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Iterable, Iterator
 from functools import cache
 
-from plait.moves.pairing import generator_word
+from plait.moves.pairing import flype_allowed, generator_word, turned
 from plait.moves.records import (
     BOTTOM,
     DEFAULT_KINDS,
@@ -25,6 +25,9 @@ from plait.moves.stabilize import destab_sites, destabilize_word, stab_letters, 
 from plait.word import PlatWord
 
 __all__ = ["apply_move", "neighbor_deltas", "neighbors", "multiply", "handle_shorten"]
+
+#: Longest tail ``B`` for which :func:`neighbor_deltas` offers a flype.
+FLYPE_TAIL = 12
 
 
 @cache
@@ -105,6 +108,13 @@ def apply_move(plat: PlatWord, record: MoveRecord) -> PlatWord:
     if kind == "destab":
         j, p = a
         return fast_plat(s - 2, destabilize_word(w, s, j, p))
+    if kind == "turn":
+        axis = a[0]
+        v = turned(w, s) if axis in (0, 2) else w
+        return fast_plat(s, v[::-1] if axis in (1, 2) else v)
+    if kind == "flype":
+        c = a[0]
+        return fast_plat(s, turned(w[:c], s) + w[c:])
     raise ValueError(f"unknown move kind {kind!r}")
 
 
@@ -183,6 +193,14 @@ def neighbor_deltas(
             for g in range(1, s):
                 yield R("insert", (p, g)), L + 2
                 yield R("insert", (p, -g)), L + 2
+    if "turn" in ks and L:
+        for axis in (0, 1, 2):
+            yield R("turn", (axis,)), L
+    if "flype" in ks:
+        # only short tails: the membership test grows with the word
+        for c in range(max(1, L - FLYPE_TAIL), L):
+            if flype_allowed(w, s, c):
+                yield R("flype", (c,)), L
     if "stab" in ks and s + 2 <= 64:
         n = s // 2
         for j in range(1, n + 2):

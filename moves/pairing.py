@@ -122,6 +122,25 @@ def artin_action(braid: Sequence[int], element: Sequence[int]) -> tuple[int, ...
     return cur
 
 
+def half_twist(strands: int) -> tuple[int, ...]:
+    """The positive half twist ``D = (s_1 ... s_{m-1})(s_1 ... s_{m-2}) ... (s_1)`` on
+    ``m = strands`` strands; ``D s_k D^-1 = s_{m-k}`` (Garside 1969)."""
+    return tuple(k for top in range(strands - 1, 0, -1) for k in range(1, top + 1))
+
+
+def turned(word: Sequence[int], strands: int) -> tuple[int, ...]:
+    """``s_k -> s_{strands-k}`` letter by letter (signs kept): conjugation by the half twist."""
+    return tuple((strands - x) if x > 0 else -(strands + x) for x in word)
+
+
+def flype_allowed(word: Sequence[int], strands: int, cut: int) -> bool:
+    """Whether the letters from ``cut`` on, ``B``, satisfy ``B^-1 D B`` in the pairing
+    subgroup (so ``A B`` and ``turned(A) B`` have the same plat closure)."""
+    b = tuple(word[cut:])
+    return in_pairing_subgroup(tuple(-x for x in reversed(b)) + half_twist(strands) + b,
+                               strands)
+
+
 def in_pairing_subgroup(braid: Sequence[int], strands: int) -> bool:
     """Whether a braid word lies in the pairing subgroup K_{2n} of B_{2n}.
 

@@ -11,6 +11,7 @@ __all__ = [
     "MOVE_KINDS",
     "PAIRING_KINDS",
     "REWRITE_KINDS",
+    "SYMMETRY_KINDS",
     "NEUTRAL_KINDS",
     "LENGTH_REDUCING_KINDS",
     "BRIDGE_REDUCING_KINDS",
@@ -46,9 +47,16 @@ BOTTOM = 1
 #                           and free cancellation (macro used to record canonicalisation)
 #   stab     (j, p, g)      stabilize: new pair j (strands 2j-1, 2j) and letter g at p
 #   destab   (j, p)         destabilize: remove pair j whose only crossing is letter p
+#   turn     (axis,)        turn the whole plat over by a half turn, a rigid motion: axis 0
+#                           (vertical, in the picture) sends s_k to s_{2n-k}; axis 1
+#                           (horizontal) reverses the word; axis 2 (perpendicular) does both
+#   flype    (c,)           w = A B -> turn-0 of A, then B, where B is letters c.. (allowed
+#                           when B^-1 D B lies in the pairing subgroup, D the half twist)
 PAIRING_KINDS = frozenset({"twist", "swap", "lthread", "rthread"})
 REWRITE_KINDS = frozenset({"cancel", "insert", "commute", "braid", "absorb", "handle", "reduce"})
-MOVE_KINDS = PAIRING_KINDS | REWRITE_KINDS | frozenset({"stab", "destab"})
+#: Half-turn symmetries (not enumerated by default; used to connect two plats).
+SYMMETRY_KINDS = frozenset({"turn", "flype"})
+MOVE_KINDS = PAIRING_KINDS | REWRITE_KINDS | SYMMETRY_KINDS | frozenset({"stab", "destab"})
 #: Moves that never change the length (useful plateau moves).
 NEUTRAL_KINDS = frozenset({"commute", "braid"})
 #: Moves that can only shorten the word (or remove a bridge).
@@ -58,14 +66,14 @@ BRIDGE_REDUCING_KINDS = frozenset({"destab"})
 #: Moves that always grow the word or the bridge count (random walks, scrambling).
 GROWING_KINDS = frozenset({"insert", "stab"})
 #: What :func:`plait.moves.neighbors` enumerates when ``kinds`` is None: every kind but the
-#: growing ones and the ``reduce`` macro (which has no finite neighbour list).
-DEFAULT_KINDS = MOVE_KINDS - GROWING_KINDS - frozenset({"reduce"})
+#: growing ones, the symmetries and the ``reduce`` macro (no finite neighbour list).
+DEFAULT_KINDS = MOVE_KINDS - GROWING_KINDS - SYMMETRY_KINDS - frozenset({"reduce"})
 
 #: Number of integer arguments of each kind (``reduce`` takes at least 2).
 ARITY = {
     "twist": 3, "swap": 3, "lthread": 3, "rthread": 3,
     "cancel": 1, "insert": 2, "commute": 1, "braid": 1, "absorb": 2, "handle": 2,
-    "reduce": 2, "stab": 3, "destab": 2,
+    "reduce": 2, "stab": 3, "destab": 2, "turn": 1, "flype": 1,
 }
 
 

@@ -266,6 +266,27 @@ def check_step(
         lo = 2 * j - 1
         new = [(y + 2 if y > 0 else y - 2) if idx(y) >= lo else y for y in w]
         return new[:p] + [g] + new[p:], strands + 2
+    if kind == "turn":
+        (axis,) = a
+        _int_range("axis", axis, 0, 2)
+        # a half turn of R^3 (rigid motion): about the vertical axis in the picture the
+        # positions are mirrored and depth flips, so s_k becomes s_{2n-k}; about the
+        # horizontal axis top and bottom trade places and depth flips, so the word is
+        # read backwards with the same letters
+        v = [(strands - x) if x > 0 else -(strands + x) for x in w] if axis != 1 else list(w)
+        return (v[::-1] if axis != 0 else v), strands
+    if kind == "flype":
+        (c,) = a
+        _int_range("cut", c, 0, L)
+        if L - c > 40:
+            raise StepError(f"flype tail of {L - c} letters is too long to check")
+        tail = w[c:]
+        d = tuple(k for top in range(strands - 1, 0, -1) for k in range(1, top + 1))
+        if not _member(tuple(-x for x in reversed(tail)) + d + tuple(tail), strands):
+            raise StepError(f"letters {c}.. conjugate the half twist out of the pairing "
+                            "subgroup")
+        head = [(strands - x) if x > 0 else -(strands + x) for x in w[:c]]
+        return head + w[c:], strands
     if kind == "destab":
         j, p = a
         if n < 2:

@@ -27,11 +27,22 @@ class _Parser(argparse.ArgumentParser):
 
 def add_input_arguments(parser: argparse.ArgumentParser, *, required: bool = True) -> None:
     """The presentation options shared by every subcommand that takes one: exactly one of
-    ``--plat``, ``--braid``, ``--pd``, ``--file`` (or a positional file path)."""
+    ``--plat``, ``--braid``, ``--pd``, ``--dt``, ``--gauss``, ``--file`` (or a positional
+    file path)."""
     g = parser.add_argument_group("input (exactly one)")
     g.add_argument("--plat", metavar="WORD", help="plat word, e.g. '2 -1 2' or '[2,-1,2]'")
     g.add_argument("--braid", metavar="WORD", help="closed braid word, e.g. '1 1 1'")
     g.add_argument("--pd", metavar="CODE", help="PD code, e.g. '[[1,5,2,4],[3,1,4,6],[5,3,6,2]]'")
+    g.add_argument("--dt", metavar="CODE",
+                   help="DT code of a knot, e.g. '4 6 2' or '[4, 8, -12, 2, -14, -16, -6, -10]' "
+                        "(negative: the crossing breaks the alternating pattern). A DT code fixes "
+                        "a prime knot only up to mirror image: plait builds the diagram whose "
+                        "first crossing is positive (for KnotInfo's codes up to 12 crossings, "
+                        "the chirality KnotInfo lists)")
+    g.add_argument("--gauss", metavar="CODE",
+                   help="Gauss code: '1 -2 3 -1 2 -3' (+ over, - under; read up to mirror image "
+                        "when planarity fixes the diagram, the first crossing made positive) or "
+                        "with crossing signs 'O1+ U2+ O3+ U1+ O2+ U3+' (exact)")
     g.add_argument("--file", metavar="PATH", help="a presentation file (JSON or text)")
     g.add_argument("--strands", type=int, metavar="N",
                    help="strands for --plat/--braid (default: least that fits)")
@@ -54,16 +65,25 @@ def load_input(args: argparse.Namespace) -> Presentation:
             raise InputError("give the file either as PATH or with --file, not both")
         file_path = args.input
     given = [(k, v) for k, v in (("plat", args.plat), ("braid", args.braid), ("pd", args.pd),
+                                 ("dt", getattr(args, "dt", None)),
+                                 ("gauss", getattr(args, "gauss", None)),
                                  ("file", file_path)) if v is not None]
     if len(given) != 1:
         names = ", ".join("--" + k for k, _ in given)
-        raise InputError("give exactly one of --plat, --braid, --pd, --file"
+        raise InputError("give exactly one of --plat, --braid, --pd, --dt, --gauss, --file"
                          + (f" (got {names})" if given else ""))
     kind, value = given[0]
     if args.strands is not None and kind not in ("plat", "braid"):
         raise InputError("--strands applies only to --plat and --braid")
     if kind == "file":
         return read_presentation_file(value)
+    if kind in ("dt", "gauss"):
+        from plait.formats import realize_code
+
+        real = realize_code(kind, value)
+        if real.mirror_chosen and not getattr(args, "quiet", False):
+            sys.stderr.write(f"plait: {kind}: {real.note()}\n")
+        return real.pd
     return parse_presentation(kind, value, args.strands)
 
 

@@ -26,6 +26,7 @@ __all__ = [
     "input_file_errors",
     "BatchItem",
     "FORMAT_TAG",
+    "realize_code",
 ]
 
 #: A presentation as given by a user: a plat, a closed braid or a PD code.
@@ -113,7 +114,21 @@ def parse_presentation(kind: str, text: str, strands: int | None = None) -> Pres
         if strands is not None:
             raise InputError("pd: --strands does not apply to a PD code")
         return parse_pd(text)
+    if kind in ("dt", "gauss"):
+        if strands is not None:
+            raise InputError(f"{kind}: --strands does not apply to a {kind.upper()} code")
+        return realize_code(kind, text).pd
     raise InputError(f"unknown presentation kind {kind!r}")
+
+
+def realize_code(kind: str, code: object):
+    """The :class:`plait.diagrams.dtgauss.Realized` diagram of a DT (``kind="dt"``) or Gauss
+    (``kind="gauss"``) code given as text or a JSON list."""
+    from plait.diagrams.dtgauss import dt_to_pd, gauss_to_pd
+
+    if not isinstance(code, (str, list)):
+        raise InputError(f"{kind}: expected a code as text or a list of integers")
+    return dt_to_pd(code) if kind == "dt" else gauss_to_pd(code)
 
 
 def _word_field(obj: dict, key: str) -> tuple[int, ...]:
@@ -139,14 +154,19 @@ def _strands_field(obj: dict) -> int | None:
 
 def presentation_from_obj(obj: object) -> Presentation:
     """A presentation from a JSON object with exactly one of ``plat`` (+ ``strands``),
-    ``braid`` (+ ``strands``) or ``pd``."""
+    ``braid`` (+ ``strands``), ``pd``, ``dt`` or ``gauss`` (the last two become PD codes,
+    see :mod:`plait.diagrams.dtgauss`)."""
     if not isinstance(obj, dict):
         raise InputError(f"expected a JSON object, got {type(obj).__name__}")
-    keys = [k for k in ("plat", "braid", "pd") if k in obj]
+    keys = [k for k in ("plat", "braid", "pd", "dt", "gauss") if k in obj]
     if len(keys) != 1:
-        raise InputError("expected exactly one of the keys 'plat', 'braid', 'pd'"
+        raise InputError("expected exactly one of the keys 'plat', 'braid', 'pd', 'dt', 'gauss'"
                          + (f" (found {', '.join(keys)})" if keys else ""))
     key = keys[0]
+    if key in ("dt", "gauss"):
+        if "strands" in obj:
+            raise InputError(f"{key}: 'strands' does not apply to a {key.upper()} code")
+        return realize_code(key, obj[key]).pd
     if key == "plat":
         return PlatWord.from_word(_word_field(obj, "plat"), _strands_field(obj))
     if key == "braid":
@@ -215,14 +235,15 @@ def read_presentation_file(path: str | os.PathLike) -> Presentation:
 
 def parse_text_line(line: str, where: str = "line") -> Presentation:
     """One presentation from a line of text: ``plat: WORD``, ``braid: WORD``,
-    ``pd: CODE`` or a bare PD code (starting with ``[[``)."""
+    ``pd: CODE``, ``dt: CODE``, ``gauss: CODE`` or a bare PD code (starting with ``[[``)."""
     s = line.strip()
-    m = re.match(r"(plat|braid|pd)\s*[:=]\s*(.*)$", s, re.S)
+    m = re.match(r"(plat|braid|pd|dt|gauss)\s*[:=]\s*(.*)$", s, re.S)
     if m:
         return parse_presentation(m.group(1), m.group(2))
     if s.startswith("[["):
         return parse_pd(s)
-    raise InputError(f"{where}: expected 'plat: WORD', 'braid: WORD', 'pd: CODE' or a PD code")
+    raise InputError(f"{where}: expected 'plat: WORD', 'braid: WORD', 'pd: CODE', 'dt: CODE', "
+                     "'gauss: CODE' or a PD code")
 
 
 @dataclass(frozen=True)
@@ -236,7 +257,8 @@ class BatchItem:
 
 
 def iter_batch_lines(path: str | os.PathLike) -> Iterator[BatchItem]:
-    """Items of a batch file: JSON Lines (``{"id": ..., "plat"|"braid"|"pd": ...}``) or
+    """Items of a batch file: JSON Lines (``{"id": ..., "plat"|"braid"|"pd"|"dt"|"gauss":
+    ...}``) or
     plain text (one presentation per line, id = line number). Blank lines and lines
     starting with ``#`` are skipped. A malformed line yields an item with ``error`` set."""
     with open(path, encoding="utf-8") as fh:

@@ -29,6 +29,9 @@ def configure(p: argparse.ArgumentParser) -> None:
     p.add_argument("--strategy", metavar="NAME", help="search strategy (default auto)")
     p.add_argument("--bridge", action="store_true",
                    help="run the bridge-number report instead of the plain reduction")
+    p.add_argument("--name", action="store_true",
+                   help="also name each result from the KnotInfo tables (columns name, "
+                        "name_mirror, name_certified, name_candidates; needs plait[tables])")
     p.add_argument("--workers", type=int, metavar="N",
                    help="worker processes on this machine (default: number of cores)")
     p.add_argument("--shard", metavar="K/N",
@@ -42,10 +45,16 @@ def configure(p: argparse.ArgumentParser) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
+    extra = {}
+    if args.name:
+        from plait.names import load_table, named_search_item
+
+        load_table()  # without database-knotinfo: exit 2 with the install hint
+        extra["item_fn"] = named_search_item
     outcome = run_batch(args.file, args.out, seed=args.seed, steps=args.steps, time=args.time,
                         strategy=args.strategy, bridge=args.bridge or None,
                         workers=args.workers, shard=parse_shard(args.shard),
-                        resume=args.resume, dask=args.dask, quiet=args.quiet)
+                        resume=args.resume, dask=args.dask, quiet=args.quiet, **extra)
     s = outcome.summary
     title = f"batch {outcome.out}"
     if outcome.written == 0 and s["complete"]:

@@ -26,6 +26,20 @@ def run(args: argparse.Namespace) -> int:
         path = path / "certificate.json"  # a run folder: check its certificate
     cert = load_certificate(path)
     res = verify_certificate(cert)
+    named = ""
+    if res.ok and isinstance(cert.meta.get("table"), dict):
+        # a naming certificate (plait name): the end plat must be the table entry's
+        from plait.names import check_table_claim, describe_claim, tables_installed
+
+        why = check_table_claim(cert.meta, cert.end) if tables_installed() else ""
+        if not tables_installed():
+            named = "not checked against the table (pip install 'plait[tables]')"
+        elif why:
+            from plait.moves.replay import ReplayResult
+
+            res = ReplayResult(False, None, None, f"table claim: {why}", res.steps)
+        else:
+            named = describe_claim(cert.meta)
     if args.json:
         emit_json({
             "valid": res.ok,
@@ -34,12 +48,15 @@ def run(args: argparse.Namespace) -> int:
             "reason": res.reason,
             "start": {"strands": cert.start.strands, "length": cert.start.length},
             "end": {"strands": cert.end.strands, "length": cert.end.length},
+            **({"name": named} if named else {}),
         })
         return 0 if res.ok else 1
     if res.ok:
         print(f"valid: {len(cert.records)} moves take a {cert.start.bridges}-bridge plat with "
               f"{cert.start.length} crossings to a {cert.end.bridges}-bridge plat with "
               f"{cert.end.length} crossings")
+        if named:
+            print(f"name:  {named}")
         return 0
     n = len(cert.records)
     if res.failed_step is None:
