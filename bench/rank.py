@@ -1,0 +1,91 @@
+"""Meridional-rank bounds b ≥ 4 from finite quotients on KnotInfo's bridge-index-4 knots.
+
+Usage::
+
+    nice -n 10 .venv/bin/python bench/rank.py [--set open12 | --set c13] [--every 1]
+        [--seconds 60] [--max-class 420]
+
+``--set open12`` (default): the KnotInfo knots up to 12 crossings with bridge index 4 whose
+lower bound from the other methods of :func:`plait.scoring.bounds.bridge_lower_bound`
+(everything but the meridional-rank search) stays below 4 — the 35 knots of
+docs/bounds.md. ``--set c13``: every ``--every``-th 13-crossing knot of bridge index 4.
+Source of the table values: KnotInfo via database-knotinfo.
+
+For each knot the plat of the table's braid notation is searched with
+:func:`plait.scoring.meridional.meridional_rank_bound` (want = 4) over all targets, with
+``--seconds`` of wall time per knot. One row per knot: the bound reached, the target that
+proved it, the image class size, seconds; then a summary line. A bound above the table's
+bridge index would be a contradiction and is counted (must be 0).
+"""
+
+from __future__ import annotations
+
+import argparse
+import os
+import statistics
+import sys
+import time
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "tests"))
+
+from kidata import knots  # noqa: E402
+
+from plait.scoring import meridional as M  # noqa: E402
+from plait.word import ClosedBraid  # noqa: E402
+
+
+def _other_bound(plat) -> int:
+    """The bound of bridge_lower_bound without its meridional-rank search."""
+    from plait.scoring import bounds
+
+    saved = bounds.meridional_rank_bound
+    bounds.meridional_rank_bound = lambda *a, **k: M.RankResult(0, None, (), ())
+    try:
+        bounds.bridge_lower_bound.cache_clear()
+        return bounds.bridge_lower_bound(plat).value
+    finally:
+        bounds.meridional_rank_bound = saved
+        bounds.bridge_lower_bound.cache_clear()
+
+
+def main(argv: list[str] | None = None) -> int:
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--set", choices=("open12", "c13"), default="open12")
+    ap.add_argument("--every", type=int, default=1)
+    ap.add_argument("--seconds", type=float, default=60.0)
+    ap.add_argument("--max-class", type=int, default=420)
+    args = ap.parse_args(argv)
+    if args.set == "open12":
+        rows = [k for k in knots(12) if k.bridge_index == 4]
+    else:
+        rows = [k for k in knots(13, 13) if k.bridge_index == 4][:: args.every]
+    t_build = time.process_time()
+    names = [n for n in M.target_names() if M._size_hint(n) <= args.max_class]
+    t_build = time.process_time() - t_build
+    print(f"{len(names)} targets (class ≤ {args.max_class}), built in {t_build:.1f} s CPU")
+    print(f"{'knot':12} {'plat b':>6} {'other':>5} {'mr ≥':>5} {'target':34} {'|image|':>7} "
+          f"{'s':>7} {'tried':>5} {'cut':>4}")
+    reached, total, contra, times = 0, 0, 0, []
+    for k in rows:
+        plat = ClosedBraid.from_word(k.braid).to_plat()
+        if args.set == "open12" and _other_bound(plat) >= 4:
+            continue
+        total += 1
+        t0 = time.monotonic()
+        res = M.meridional_rank_bound(plat, 4, deadline=t0 + args.seconds, names=names)
+        dt = time.monotonic() - t0
+        times.append(dt)
+        w = res.witness
+        reached += res.value >= 4
+        contra += res.value > k.bridge_index
+        print(f"{k.name:12} {plat.bridges:>6} {'':>5} {res.value:>5} "
+              f"{(w.target if w else '-'):34} {(w.image_size if w else 0):>7} {dt:>7.1f} "
+              f"{len(res.tried):>5} {len(res.skipped):>4}", flush=True)
+    med = statistics.median(times) if times else 0.0
+    print(f"{args.set}: b ≥ 4 proved for {reached} of {total}; contradictions {contra}; "
+          f"median {med:.1f} s per knot; {time.strftime('%Y-%m-%d')}")
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
