@@ -836,7 +836,7 @@ class RankResult:
 
 def meridional_rank_bound(plat: PlatWord, want: int, deadline: float | None = None,
                           ops: int | None = None, names: Sequence[str] | None = None,
-                          max_class: int | None = None) -> RankResult:
+                          max_class: int | None = None, stop_at: int | None = None) -> RankResult:
     """Search the targets for a homomorphism proving meridional rank ``>= want``.
 
     Parameters
@@ -854,6 +854,9 @@ def meridional_rank_bound(plat: PlatWord, want: int, deadline: float | None = No
         Targets to try, default :func:`target_names`.
     max_class : int, optional
         Skip targets whose class has more elements.
+    stop_at : int, optional
+        Stop once the bound reaches this (default: the plat's bridge count, which no
+        bound can exceed).
 
     Returns
     -------
@@ -871,8 +874,9 @@ def meridional_rank_bound(plat: PlatWord, want: int, deadline: float | None = No
     best: RankWitness | None = None
     tried: list[str] = []
     skipped: list[str] = []
+    stop = plat.bridges if stop_at is None else min(stop_at, plat.bridges)
     for name in (names if names is not None else target_names()):
-        if want > plat.bridges:
+        if want > stop:
             break
         if deadline is not None and time.monotonic() > deadline:
             skipped.append(name)
