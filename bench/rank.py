@@ -8,7 +8,8 @@ Usage::
 ``--set open12`` (default): the KnotInfo knots up to 12 crossings with bridge index 4 whose
 lower bound from the other methods of :func:`plait.scoring.bounds.bridge_lower_bound`
 (everything but the meridional-rank search) and meridians to transpositions of S5 and
-S6 (the bound before this module) stays below 4 — the 35 knots of docs/bounds.md. ``--set c13``: every ``--every``-th 13-crossing knot of bridge index 4.
+S6 (the bound before this module) stays below 4 — the 35 knots of docs/bounds.md.
+``--set c13``: every ``--every``-th 13-crossing knot of bridge index 4.
 Source of the table values: KnotInfo via database-knotinfo.
 
 For each knot the plat of the table's braid notation is searched with
@@ -69,6 +70,8 @@ def main(argv: list[str] | None = None) -> int:
     ap.add_argument("--every", type=int, default=1)
     ap.add_argument("--seconds", type=float, default=60.0)
     ap.add_argument("--max-class", type=int, default=420)
+    ap.add_argument("--proofs", default=None,
+                    help="folder to write a rank proof file for every knot reaching 4")
     args = ap.parse_args(argv)
     if args.set == "open12":
         rows = [k for k in knots(12) if k.bridge_index == 4]
@@ -94,6 +97,14 @@ def main(argv: list[str] | None = None) -> int:
         times.append(dt)
         w = res.witness
         reached += res.value >= 4
+        if args.proofs and w is not None and res.value >= 4:
+            from plait.atomic import write_json_atomic
+
+            os.makedirs(args.proofs, exist_ok=True)
+            note = (f"{k.name} from KnotInfo's braid notation; KnotInfo bridge_index "
+                    f"{k.bridge_index}")
+            write_json_atomic(os.path.join(args.proofs, f"{k.name}.json"),
+                              M.rank_proof(plat, w, note))
         contra += res.value > k.bridge_index
         print(f"{k.name:12} {plat.bridges:>6} {old:>5} {res.value:>5} "
               f"{(w.target if w else '-'):34} {(w.image_size if w else 0):>7} {dt:>7.1f} "

@@ -6,7 +6,7 @@ import time
 from collections.abc import Iterator, Sequence
 from dataclasses import dataclass, field
 from functools import cache
-from itertools import combinations, permutations, product
+from itertools import combinations
 
 from plait.scoring.quotients import _program
 from plait.word import PlatWord
@@ -351,7 +351,7 @@ def _catalog() -> dict[str, tuple]:
             cat[f"S{m}/{label}"] = ("sym", m, ctype, size)
     for p in (7, 11, 13):
         cat[f"PSL(2,{p})"] = ("psl", p, None, 0)
-    for name, (cartan, primes) in _cartans().items():
+    for name, (_cartan, primes) in _cartans().items():
         for p in primes:
             cat[f"{name} mod {p}/reflection"] = ("cartan", name, p, 0)
             if name == "W(F4)":
@@ -630,8 +630,11 @@ def least_generating(q: Quandle, members: frozenset[int], limit: int,
 # -- homomorphisms on a plat ----------------------------------------------------------
 
 
+Labels = tuple[int, ...]
+
+
 def homomorphisms(plat: PlatWord, q: Quandle, deadline: float | None = None,
-                  budget: list[int] | None = None) -> Iterator[tuple[tuple[int, ...], tuple[int, ...]]]:
+                  budget: list[int] | None = None) -> Iterator[tuple[Labels, Labels]]:
     """Homomorphisms of the link group into ``q``'s group with meridians into its class,
     one or more per conjugacy orbit.
 
@@ -664,7 +667,7 @@ def homomorphisms(plat: PlatWord, q: Quandle, deadline: float | None = None,
     memo: dict[tuple[int, ...], list[int]] = {}
     tick = [0]
 
-    def rec(i: int) -> Iterator[tuple[tuple[int, ...], tuple[int, ...]]]:
+    def rec(i: int) -> Iterator[tuple[Labels, Labels]]:
         if i == len(stages):
             yield tuple(seeds), tuple(labels)
             return

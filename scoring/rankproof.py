@@ -262,6 +262,8 @@ def _check(obj: object) -> RankProofCheck:
                 parent[max(a, b)] = min(a, b)
     firsts = sorted({find(x) for x in range(m)})
     k = rank - 1
+    if k >= m:
+        raise _Bad(f"the whole image class ({m} elements) is at most {k} elements")
     for x in firsts:
         others = [y for y in range(m) if y != x]
         for rest in combinations(others, max(k - 1, 0)):
