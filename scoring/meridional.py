@@ -503,14 +503,11 @@ DEFAULT_TARGETS: tuple[str, ...] = (
     "S6/transposition",
     "W(D4) mod 5/reflection",
     "W(~A3) mod 3/reflection",
-    "S5/cycles 3",
-    "S5/cycles 5",
-    "PSL(2,7)/order-3",
-    "PSL(2,7)/order-4",
-    "PSL(2,7)/order-7",
+    "W(~A3) mod 5/reflection",
     "S7/transposition",
     "W(D5) mod 3/reflection",
-    "W(~A3) mod 5/reflection",
+    "S5/cycles 5",
+    "PSL(2,7)/order-7",
 )
 
 
@@ -632,6 +629,48 @@ def least_generating(q: Quandle, members: frozenset[int], limit: int,
 
 Labels = tuple[int, ...]
 
+#: Largest inner automorphism group listed element by element for the symmetry
+#: reduction of :func:`homomorphisms`; a larger one is replaced by the conjugations by
+#: class elements that fix the labels chosen so far.
+INNER_GROUP_LIMIT = 20_000
+
+
+@cache
+def _inner_group(name: str) -> tuple[tuple[int, ...], ...] | None:
+    """All permutations of the class induced by conjugation by the group its elements
+    generate, or None when there are more than :data:`INNER_GROUP_LIMIT`."""
+    q = quandle(name)
+    rows = list(dict.fromkeys(q.fwd))
+    gens = [rows[0]]
+    ident = tuple(range(q.size))
+    elems = {ident}
+    order = [ident]
+    while True:
+        # closure of ``order`` under right multiplication by ``gens``
+        i = 0
+        while i < len(order):
+            x = order[i]
+            for g in gens:
+                y = tuple(x[j] for j in g)
+                if y not in elems:
+                    elems.add(y)
+                    order.append(y)
+                    if len(order) > INNER_GROUP_LIMIT:
+                        return None
+            i += 1
+        missing = next((r for r in rows if r not in elems), None)
+        if missing is None:
+            return tuple(order)
+        gens.append(missing)
+        # re-expand every element by the new generator (and so on, by the loop above)
+        elems_list = list(order)
+        order = [ident]
+        elems = {ident}
+        for x in elems_list:
+            if x not in elems:
+                elems.add(x)
+                order.append(x)
+
 
 def homomorphisms(plat: PlatWord, q: Quandle, deadline: float | None = None,
                   budget: list[int] | None = None) -> Iterator[tuple[Labels, Labels]]:
@@ -657,6 +696,7 @@ def homomorphisms(plat: PlatWord, q: Quandle, deadline: float | None = None,
     class elements that fix the earlier seed labels, and every crossing check runs as
     soon as its three arcs are known, so most branches die early.
     """
+    group = _inner_group(q.name)
     prog = _program(plat)
     stages = [(seed, tuple((d, a, src, q.fwd if tw == 1 else q.bwd) for d, a, src, tw in ops),
                tuple((d, a, src, q.fwd if tw == 1 else q.bwd) for d, a, src, tw in checks))
@@ -677,7 +717,9 @@ def homomorphisms(plat: PlatWord, q: Quandle, deadline: float | None = None,
         else:
             key = tuple(sorted(set(seeds)))
             if key not in memo:
-                memo[key] = _orbit_reps(_stabilizer_rows(q, allm, key), allm)
+                rows = (_stabilizer_rows(q, allm, key) if group is None else
+                        [g for g in group if all(g[f] == f for f in key)])
+                memo[key] = _orbit_reps(rows, allm)
             reps = memo[key]
         cost = len(ops) + len(checks) + 1
         for c in reps:
