@@ -20,6 +20,9 @@ __all__ = [
 #: Primes tried for Fox colorings besides those dividing the determinant.
 FOX_PRIMES = (3, 5, 7)
 
+#: Label operations per target in the search for b >= 4 and more.
+RANK_BUDGET = 1_000_000
+
 #: A homomorphism search gives up (and its count is not used) after this many label
 #: operations.
 QUOTIENT_BUDGET = 3_000_000
@@ -335,10 +338,15 @@ def bridge_lower_bound(plat: PlatWord, deadline: float | None = None) -> LowerBo
 
 
 def _meridional(plat: PlatWord, want: int, deadline: float | None):
-    from plait.scoring.meridional import DEFAULT_TARGETS, meridional_rank_bound
+    # b >= 3: every default target with the full budget (rarely needed: the 2-bridge
+    # classification usually decides first); b >= 4 and more: the rank targets
+    from plait.scoring.meridional import DEFAULT_TARGETS, RANK_TARGETS, meridional_rank_bound
 
-    return meridional_rank_bound(plat, want, deadline=deadline, ops=QUOTIENT_BUDGET,
-                                 names=DEFAULT_TARGETS)
+    if want <= 3:
+        return meridional_rank_bound(plat, want, deadline=deadline, ops=QUOTIENT_BUDGET,
+                                     names=DEFAULT_TARGETS)
+    return meridional_rank_bound(plat, want, deadline=deadline, ops=RANK_BUDGET,
+                                 names=RANK_TARGETS)
 
 
 def _odd_prime_factors(n: int, limit: int = 10_000) -> list[int]:

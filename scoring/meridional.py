@@ -18,6 +18,7 @@ __all__ = [
     "quandle",
     "target_names",
     "DEFAULT_TARGETS",
+    "RANK_TARGETS",
     "closure",
     "least_generating",
     "homomorphisms",
@@ -508,6 +509,17 @@ DEFAULT_TARGETS: tuple[str, ...] = (
     "W(D5) mod 3/reflection",
     "S5/cycles 5",
     "PSL(2,7)/order-7",
+)
+
+
+#: The targets tried for b >= 4 and more once b >= 3 is proved: reflection and
+#: transvection classes whose images often need 4 or more generators, cheapest first.
+RANK_TARGETS: tuple[str, ...] = (
+    "S5/transposition",
+    "S6/transposition",
+    "W(D4) mod 5/reflection",
+    "Sp(4,3)/transvection",
+    "W(~A3) mod 5/reflection",
 )
 
 
