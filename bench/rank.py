@@ -94,7 +94,7 @@ def _old_bound(plat) -> int:
 
 def _low(args) -> int:
     """Soundness sweep: knots of bridge index 2 and 3; any bound above it is counted."""
-    names = (args.names.split(",") if args.names else
+    names = (args.names.split(";") if args.names else
              [n for n in M.target_names() if M._size_hint(n) <= args.max_class])
     rows = [k for k in knots(args.max_crossings)[:: args.every] if k.bridge_index in (2, 3)]
     contra, n, t0 = [], 0, time.monotonic()
@@ -118,7 +118,7 @@ def main(argv: list[str] | None = None) -> int:
     ap.add_argument("--set", choices=("open12", "c13", "low"), default="open12")
     ap.add_argument("--max-crossings", type=int, default=12)
     ap.add_argument("--names", default=None,
-                    help="comma-separated targets (default: all up to --max-class)")
+                    help="targets separated by semicolons (default: all up to --max-class)")
     ap.add_argument("--every", type=int, default=1)
     ap.add_argument("--seconds", type=float, default=60.0)
     ap.add_argument("--max-class", type=int, default=420)

@@ -884,7 +884,8 @@ class RankResult:
         return line + self.tried_note()
 
     def tried_note(self) -> str:
-        note = f"; groups tried: {len(self.tried)}"
+        shown_t = ", ".join(self.tried[:6]) + (" …" if len(self.tried) > 6 else "")
+        note = f"; groups tried: {len(self.tried)} ({shown_t})" if self.tried else ""
         if self.skipped:
             shown = ", ".join(self.skipped[:4]) + (" …" if len(self.skipped) > 4 else "")
             note += f"; not tried (time budget): {len(self.skipped)} ({shown})"
