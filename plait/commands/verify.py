@@ -8,7 +8,8 @@ from pathlib import Path
 from plait.cli import emit_json
 
 NAME = "verify"
-HELP = "check a certificate: replay its moves from the start plat to the claimed end plat"
+HELP = ("check a certificate: replay its moves from the start plat to the claimed end plat "
+        "(or re-check a meridional-rank proof file)")
 ORDER = 60
 
 
@@ -24,6 +25,10 @@ def run(args: argparse.Namespace) -> int:
     path = Path(args.certificate)
     if path.is_dir() and (path / "certificate.json").is_file():
         path = path / "certificate.json"  # a run folder: check its certificate
+    if path.is_file():
+        rc = _rank_proof(path, args.json)  # a meridional-rank proof file
+        if rc is not None:
+            return rc
     cert = load_certificate(path)
     res = verify_certificate(cert)
     named = ""
@@ -68,3 +73,25 @@ def run(args: argparse.Namespace) -> int:
     reason = res.reason if len(res.reason) <= 300 else res.reason[:297] + "..."
     print(f"invalid: {where}: {reason}")
     return 1
+
+
+def _rank_proof(path: Path, as_json: bool) -> int | None:
+    """Check ``path`` when it is a rank proof (format plait-rank-proof/1); None otherwise."""
+    from plait.scoring.rankproof import check_rank_proof, is_rank_proof, load_rank_proof
+
+    try:
+        with open(path, encoding="utf-8") as fh:
+            if '"plait-rank-proof/1"' not in fh.read(4096):
+                return None
+    except (OSError, UnicodeDecodeError):
+        return None
+    obj = load_rank_proof(path)
+    if not is_rank_proof(obj):
+        return None
+    res = check_rank_proof(obj)
+    if as_json:
+        emit_json({"valid": res.ok, "kind": "rank-proof", "bound": res.bound,
+                   "image_size": res.image_size, "exact": res.exact, "reason": res.message})
+    else:
+        print(res.message)
+    return 0 if res.ok else 1
