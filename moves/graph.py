@@ -105,6 +105,10 @@ def apply_move(plat: PlatWord, record: MoveRecord) -> PlatWord:
     if kind == "destab":
         j, p = a
         return fast_plat(s - 2, destabilize_word(w, s, j, p))
+    if kind == "rebridge":
+        from plait.moves.rebridge import decode
+
+        return decode(a).result  # the recorded construction (checked by replay)
     raise ValueError(f"unknown move kind {kind!r}")
 
 

@@ -16,6 +16,7 @@ __all__ = [
     "BRIDGE_REDUCING_KINDS",
     "GROWING_KINDS",
     "DEFAULT_KINDS",
+    "DIAGRAM_KINDS",
     "ARITY",
     "TOP",
     "BOTTOM",
@@ -46,9 +47,14 @@ BOTTOM = 1
 #                           and free cancellation (macro used to record canonicalisation)
 #   stab     (j, p, g)      stabilize: new pair j (strands 2j-1, 2j) and letter g at p
 #   destab   (j, p)         destabilize: remove pair j whose only crossing is letter p
+#   rebridge (k, seeds.., s, (crossing, arc).., a, b, strands, word..)
+#                           diagram step: the plat rebuilt from a Wirtinger coloring of its
+#                           own diagram with fewer bridges (layout in plait.moves.rebridge)
 PAIRING_KINDS = frozenset({"twist", "swap", "lthread", "rthread"})
 REWRITE_KINDS = frozenset({"cancel", "insert", "commute", "braid", "absorb", "handle", "reduce"})
-MOVE_KINDS = PAIRING_KINDS | REWRITE_KINDS | frozenset({"stab", "destab"})
+#: Moves that rebuild the plat from its diagram rather than rewrite the word.
+DIAGRAM_KINDS = frozenset({"rebridge"})
+MOVE_KINDS = PAIRING_KINDS | REWRITE_KINDS | frozenset({"stab", "destab"}) | DIAGRAM_KINDS
 #: Moves that never change the length (useful plateau moves).
 NEUTRAL_KINDS = frozenset({"commute", "braid"})
 #: Moves that can only shorten the word (or remove a bridge).
@@ -59,14 +65,16 @@ BRIDGE_REDUCING_KINDS = frozenset({"destab"})
 GROWING_KINDS = frozenset({"insert", "stab"})
 #: What :func:`plait.moves.neighbors` enumerates when ``kinds`` is None: every kind but the
 #: growing ones and the ``reduce`` macro (which has no finite neighbour list).
-DEFAULT_KINDS = MOVE_KINDS - GROWING_KINDS - frozenset({"reduce"})
+DEFAULT_KINDS = MOVE_KINDS - GROWING_KINDS - frozenset({"reduce"}) - DIAGRAM_KINDS
 
 #: Number of integer arguments of each kind (``reduce`` takes at least 2).
 ARITY = {
     "twist": 3, "swap": 3, "lthread": 3, "rthread": 3,
     "cancel": 1, "insert": 2, "commute": 1, "braid": 1, "absorb": 2, "handle": 2,
-    "reduce": 2, "stab": 3, "destab": 2,
+    "reduce": 2, "stab": 3, "destab": 2, "rebridge": 6,
 }
+#: Kinds whose arity is a minimum (variable-length arguments).
+_VARIADIC = frozenset({"reduce", "rebridge"})
 
 
 @dataclass(frozen=True, slots=True)
@@ -115,7 +123,7 @@ class MoveRecord:
         ):
             raise InputError(f"move: arguments of {kind} must be integers")
         need = ARITY[kind]
-        if (len(args) != need) if kind != "reduce" else (len(args) < need):
+        if (len(args) != need) if kind not in _VARIADIC else (len(args) < need):
             raise InputError(f"move: {kind} takes {need} arguments, got {len(args)}")
         return cls(kind, tuple(args))
 

@@ -74,7 +74,10 @@ def drawing(pd: PDCode) -> dict:
        on a grid", Inform. Process. Lett. 54 (1995) (the networkx drawing).
     """
     emb = planar_embedding(pd)
-    pos = {v: (int(p[0]), int(p[1])) for v, p in nx.combinatorial_embedding_to_pos(emb).items()}
+    numbered = _integer_labels(emb)
+    names = numbered.graph["names"]
+    pos = {names[i]: (int(p[0]), int(p[1]))
+           for i, p in nx.combinatorial_embedding_to_pos(numbered).items()}
     orient = 0
     for j in range(pd.length):
         cx, cy = pos[("x", j)]
@@ -97,6 +100,23 @@ def drawing(pd: PDCode) -> dict:
     if orient == -1:
         pos = {v: (-x, y) for v, (x, y) in pos.items()}
     return pos
+
+
+def _integer_labels(emb: nx.PlanarEmbedding) -> nx.PlanarEmbedding:
+    # The same embedding on the integers 0..n-1, nodes numbered in sorted order. The
+    # drawing then does not depend on the hash of strings (randomized per process), so
+    # every process draws a diagram the same way: the diagram step of a certificate is
+    # rebuilt exactly by another process. Node names are kept in the attribute "name".
+    names = sorted(emb.nodes)
+    num = {v: i for i, v in enumerate(names)}
+    out = nx.PlanarEmbedding()
+    for v in names:
+        ring = list(emb.neighbors_cw_order(v))
+        out.add_half_edge_first(num[v], num[ring[0]])
+        for k in range(1, len(ring)):
+            out.add_half_edge_cw(num[v], num[ring[k]], num[ring[k - 1]])
+    out.graph["names"] = names
+    return out
 
 
 def _edge_nodes(pd: PDCode) -> dict[tuple[int, int], list]:

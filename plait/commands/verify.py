@@ -30,6 +30,8 @@ def run(args: argparse.Namespace) -> int:
         emit_json({
             "valid": res.ok,
             "moves": len(cert.records),
+            "replayed_moves": res.steps - res.constructions if res.ok else None,
+            "constructions": res.constructions if res.ok else None,
             "failed_step": res.failed_step,
             "reason": res.reason,
             "start": {"strands": cert.start.strands, "length": cert.start.length},
@@ -40,6 +42,8 @@ def run(args: argparse.Namespace) -> int:
         print(f"valid: {len(cert.records)} moves take a {cert.start.bridges}-bridge plat with "
               f"{cert.start.length} crossings to a {cert.end.bridges}-bridge plat with "
               f"{cert.end.length} crossings")
+        print(f"steps: {res.steps - res.constructions} replayed moves, {res.constructions} "
+              f"diagram constructions (rebuilt and compared)")
         return 0
     n = len(cert.records)
     if res.failed_step is None:
