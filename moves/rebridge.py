@@ -1,4 +1,4 @@
-"""The diagram step: a plat rebuilt from its own diagram's Wirtinger coloring, with fewer bridges."""
+"""The diagram step: a plat rebuilt from its own diagram's Wirtinger coloring, fewer bridges."""
 
 from __future__ import annotations
 

@@ -17,6 +17,7 @@ from plait.errors import GuardViolation, InputError
 from plait.formats import presentation_from_obj, presentation_to_obj
 from plait.scoring.objective import make_objective
 from plait.search.engine import (
+    OMEGA_LENGTH_FACTOR,
     OMEGA_TIME,
     SearchContext,
     rng_state_from_json,
@@ -40,9 +41,11 @@ BEST_EVERY = 0.5
 # Greedy isolating moves tried on the start plat before the strategy begins.
 INITIAL_SEEK = 40
 # Deterministic seconds of CP-SAT for the diagram step from the start plat.
-START_OMEGA_TIME = 2.0
+START_OMEGA_TIME = 0.5
 # Least number of steps between two diagram steps from bests with equal bridge counts.
 OMEGA_BEST_EVERY = 40
+# Steps without a new best after which a longer best gets a diagram step too.
+OMEGA_STALL = 400
 
 
 @dataclass
@@ -254,11 +257,15 @@ class _Run:
         if ctx.best.bridges <= ctx.lower_bound:
             return
         last = self.omega_tried
+        stalled = ctx.steps - ctx.best_step >= OMEGA_STALL
         if last is not None and (h == last[0] or (
                 ctx.best.bridges == last[2] and ctx.steps - last[1] < OMEGA_BEST_EVERY)):
             return  # tried this best, or a best with as many bridges only lately
+        if ctx.best.length > OMEGA_LENGTH_FACTOR * ctx.best.bridges and not stalled:
+            return  # wait until the search has shortened it, or stalls
         self.omega_tried = [h, ctx.steps, ctx.best.bridges]
-        got = ctx.diagram_step(ctx.best, ctx.best_node)
+        got = ctx.diagram_step(ctx.best, ctx.best_node,
+                               length_factor=2 * OMEGA_LENGTH_FACTOR if stalled else None)
         if got is not None:
             ctx.offer(*got)
 

@@ -41,7 +41,7 @@ class AStarParams:
     iso_weight: float = 0.5
     max_open: int = 1500
     closed_cap: int = 20000
-    omega_every: int = 25
+    omega_every: int = 150
 
 
 def heuristic(plat: PlatWord, lower_bound: int, target_length: int, max_drop: int,

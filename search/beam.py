@@ -63,8 +63,8 @@ class BeamParams:
     visited_cap: int = 20000
     lookahead: int = 6
     lookahead_every: int = 2
-    omega_every: int = 3
-    omega_top: int = 2
+    omega_every: int = 15
+    omega_top: int = 1
 
 
 class BeamSearch:

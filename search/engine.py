@@ -14,6 +14,10 @@ from plait.word import PlatWord
 
 #: Deterministic seconds of CP-SAT per Wirtinger number computed inside a search.
 OMEGA_TIME = 0.5
+#: Diagram steps are tried on plats of at most this many letters per bridge.
+OMEGA_LENGTH_FACTOR = 4
+#: Steps of the budget charged per diagram step tried.
+OMEGA_STEP_COST = 25
 
 __all__ = [
     "OMEGA_TIME",
@@ -214,7 +218,7 @@ class SearchContext:
         self.omega_cache: OrderedDict[int, tuple[int, object]] = OrderedDict()
         self.omega_cap = 4096
         self.omega_time = OMEGA_TIME  # deterministic seconds per CP-SAT call
-        self.omega_directions = 2     # projection directions tried per construction
+        self.omega_directions = 1     # projection directions tried per construction
         self.omega_calls = 0          # solver calls made (cache misses)
         self.diagram_steps = 0        # diagram steps taken
         # called with the plat before each Wirtinger computation (the run logs it)
@@ -273,10 +277,13 @@ class SearchContext:
                 self.omega_cache.popitem(last=False)
         return hit
 
-    def diagram_step(self, plat: PlatWord, node: int) -> tuple[PlatWord, int] | None:
+    def diagram_step(self, plat: PlatWord, node: int,
+                     length_factor: int | None = None) -> tuple[PlatWord, int] | None:
         """The diagram step from ``plat`` (at path ``node``) when its diagram's Wirtinger
         number is below its bridge count: the rebuilt plat in canonical form with
-        visible stabilizations removed, and its path node; else None.
+        visible stabilizations removed, and its path node; else None. Plats longer than
+        ``length_factor`` (default :data:`OMEGA_LENGTH_FACTOR`) letters per bridge are
+        skipped: the construction's cost grows with the length.
 
         References
         ----------
@@ -285,6 +292,12 @@ class SearchContext:
         """
         if plat.bridges <= self.lower_bound or "rebridge" not in self._allowed():
             return None
+        factor = OMEGA_LENGTH_FACTOR if length_factor is None else length_factor
+        if plat.length > factor * plat.bridges:
+            return None  # long diagrams cost seconds and rarely color from fewer seeds
+        # a solver call costs about as much time as this many expansions; charged on a
+        # cache hit too, so a resumed run (empty cache) counts exactly like the original
+        self.steps += OMEGA_STEP_COST
         _number, data = self._omega_entry(plat)
         if data is None:
             return None
