@@ -18,6 +18,7 @@ from plait.formats import presentation_from_obj, presentation_to_obj
 from plait.scoring.objective import make_objective
 from plait.search.engine import (
     OMEGA_LENGTH_FACTOR,
+    OMEGA_LENGTH_SLACK,
     OMEGA_TIME,
     SearchContext,
     rng_state_from_json,
@@ -44,8 +45,10 @@ INITIAL_SEEK = 40
 START_OMEGA_TIME = 0.5
 # Least number of steps between two diagram steps from bests with equal bridge counts.
 OMEGA_BEST_EVERY = 40
-# Steps without a new best after which a longer best gets a diagram step too.
+# Steps without a new best after which a longer best gets a diagram step too; with a
+# time budget only, also after this share of the budget without a new best.
 OMEGA_STALL = 400
+OMEGA_STALL_SHARE = 0.2
 
 
 @dataclass
@@ -248,7 +251,7 @@ class _Run:
                                       self.elapsed, state["strategy"])
         self.folder.log("resume", steps=ctx.steps, elapsed=round(self.elapsed_before, 3))
 
-    def _diagram_best(self) -> None:
+    def _diagram_best(self, final: bool = False) -> None:
         """The diagram step from the best plat while its bridges exceed the lower bound:
         once per best, and for bests with as many bridges as the last one tried at most
         once per ``OMEGA_BEST_EVERY`` steps (the last try is checkpointed)."""
@@ -257,11 +260,16 @@ class _Run:
         if ctx.best.bridges <= ctx.lower_bound:
             return
         last = self.omega_tried
-        stalled = ctx.steps - ctx.best_step >= OMEGA_STALL
-        if last is not None and (h == last[0] or (
-                ctx.best.bridges == last[2] and ctx.steps - last[1] < OMEGA_BEST_EVERY)):
-            return  # tried this best, or a best with as many bridges only lately
-        if ctx.best.length > OMEGA_LENGTH_FACTOR * ctx.best.bridges and not stalled:
+        stalled = final or ctx.steps - ctx.best_step >= OMEGA_STALL or (
+            self.budget.steps is None and self.budget.time is not None
+            and self.elapsed() - self.best_found >= OMEGA_STALL_SHARE * self.budget.time)
+        if last is not None and h == last[0]:
+            return  # tried this best
+        if (not final and last is not None and ctx.best.bridges == last[2]
+                and ctx.steps - last[1] < OMEGA_BEST_EVERY):
+            return  # a best with as many bridges was tried lately
+        if (ctx.best.length > OMEGA_LENGTH_FACTOR * ctx.best.bridges + OMEGA_LENGTH_SLACK
+                and not stalled):
             return  # wait until the search has shortened it, or stalls
         self.omega_tried = [h, ctx.steps, ctx.best.bridges]
         got = ctx.diagram_step(ctx.best, ctx.best_node,
@@ -385,6 +393,9 @@ class _Run:
                                     elapsed=round(self.elapsed(), 3))
                 if bar is not None:
                     self._bar_update(bar)
+            if self.interrupt is None and not self.ctx.at_optimum():
+                # budget used up: a last diagram step from the best not tried yet
+                self._diagram_best(final=True)
             self._write_best(force=True)
             if bar is not None:
                 self._bar_update(bar, force=True)

@@ -16,6 +16,8 @@ from plait.word import PlatWord
 OMEGA_TIME = 0.5
 #: Diagram steps are tried on plats of at most this many letters per bridge.
 OMEGA_LENGTH_FACTOR = 4
+#: Letters allowed on top of ``OMEGA_LENGTH_FACTOR`` per bridge.
+OMEGA_LENGTH_SLACK = 12
 #: Steps of the budget charged per diagram step tried.
 OMEGA_STEP_COST = 25
 
@@ -283,7 +285,8 @@ class SearchContext:
         number is below its bridge count: the rebuilt plat in canonical form with
         visible stabilizations removed, and its path node; else None. Plats longer than
         ``length_factor`` (default :data:`OMEGA_LENGTH_FACTOR`) letters per bridge are
-        skipped: the construction's cost grows with the length.
+        skipped (plus :data:`OMEGA_LENGTH_SLACK`): the construction's cost grows with the
+        length.
 
         References
         ----------
@@ -293,7 +296,7 @@ class SearchContext:
         if plat.bridges <= self.lower_bound or "rebridge" not in self._allowed():
             return None
         factor = OMEGA_LENGTH_FACTOR if length_factor is None else length_factor
-        if plat.length > factor * plat.bridges:
+        if plat.length > factor * plat.bridges + OMEGA_LENGTH_SLACK:
             return None  # long diagrams cost seconds and rarely color from fewer seeds
         # a solver call costs about as much time as this many expansions; charged on a
         # cache hit too, so a resumed run (empty cache) counts exactly like the original
