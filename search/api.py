@@ -19,7 +19,6 @@ from plait.scoring.objective import make_objective
 from plait.search.engine import (
     OMEGA_LENGTH_FACTOR,
     OMEGA_LENGTH_SLACK,
-    OMEGA_TIME,
     SearchContext,
     rng_state_from_json,
     rng_state_to_json,
@@ -41,8 +40,6 @@ CHECKPOINT_EVERY = 3.0
 BEST_EVERY = 0.5
 # Greedy isolating moves tried on the start plat before the strategy begins.
 INITIAL_SEEK = 40
-# Deterministic seconds of CP-SAT for the diagram step from the start plat.
-START_OMEGA_TIME = 0.5
 # Least number of steps between two diagram steps from bests with equal bridge counts.
 OMEGA_BEST_EVERY = 40
 # Steps without a new best after which a longer best gets a diagram step too; with a
@@ -209,10 +206,6 @@ class _Run:
             lower, reasons = _lower_bound(ctx.best)
         self.lower, self.reasons = lower, reasons
         ctx.lower_bound = max(1, lower)
-        # the diagram step from the start: the Wirtinger number of its own diagram
-        ctx.omega_time = START_OMEGA_TIME
-        self._diagram_best()
-        ctx.omega_time = OMEGA_TIME
         self.strategy = make_strategy(cfg["strategy"], ctx, cfg.get("params"), self.budget,
                                       self.elapsed)
         self.folder.log("start", strategy=cfg["strategy"], seed=cfg["seed"],
@@ -384,8 +377,10 @@ class _Run:
         try:
             while (self._budget_left() and self.interrupt is None
                    and not self.ctx.at_optimum()):
-                self.strategy.step()
+                # the diagram step from the best (the start plat first, after the first
+                # checkpoint, so that a kill -9 during it can be resumed)
                 self._diagram_best()
+                self.strategy.step()
                 self._write_best()
                 if _time.monotonic() - self.last_checkpoint >= self.checkpoint_every:
                     self._checkpoint("running")
