@@ -195,6 +195,7 @@ class _Run:
         kinds = tuple(cfg["kinds"]) if cfg.get("kinds") else None
         ctx = SearchContext(self.start, self.objective, random.Random(cfg["seed"]), 1, kinds)
         self.ctx = ctx
+        ctx.length_lower = self._length_lower()
         ctx.on_best = self._on_best
         ctx.on_diagram = self._on_diagram
         # first the cheap part: canonical form and a greedy hunt for stabilizations
@@ -234,6 +235,7 @@ class _Run:
         ctx.explored = state["explored"]
         ctx.improvements = state["improvements"]
         self.ctx = ctx
+        ctx.length_lower = self._length_lower()
         self.elapsed_before = state["elapsed"]
         self.t0 = _time.monotonic()
         self.verified_node, self.verified_plat = ctx.best_node, ctx.best
@@ -243,6 +245,17 @@ class _Run:
         self.strategy = make_strategy(cfg["strategy"], ctx, cfg.get("params"), self.budget,
                                       self.elapsed, state["strategy"])
         self.folder.log("resume", steps=ctx.steps, elapsed=round(self.elapsed_before, 3))
+
+    def _length_lower(self) -> int:
+        """The Jones-span length bound from the input's cheap fingerprint (0 when its
+        Jones polynomial was not computed): the search stops when the best meets it and
+        the bridge bound."""
+        from plait.scoring.lengthbound import length_lower_bound
+
+        v = getattr(self.fp_cheap, "jones", None)
+        if v is None:
+            return 0
+        return length_lower_bound(self.start, jones_poly=v).value
 
     def _diagram_best(self, final: bool = False) -> None:
         """The diagram step from the best plat while its bridges exceed the lower bound:

@@ -212,6 +212,7 @@ class SearchContext:
         self.steps = 0          # work units done (the --steps budget counts these)
         self.explored = 0       # neighbours generated
         self.improvements = 0   # number of new bests
+        self.length_lower = 0   # no plat of the link has fewer letters (plait.scoring.lengthbound)
         self.on_best: Callable[[PlatWord, int], None] | None = None
         # the diagram step (plait.moves.rebridge): omega[word hash of a canonical plat]
         # = (seed count found for its diagram, the step or None); first in, first out.
@@ -329,8 +330,11 @@ class SearchContext:
         return (b, plat.bridges, isolation(plat), plat.length)
 
     def at_optimum(self) -> bool:
-        """True when nothing can beat the best (one bridge and no letters: the unknot)."""
-        return self.best.bridges <= self.lower_bound and self.best.length == 0
+        """True when nothing can beat the best: its bridges meet the certified lower bound
+        and its length meets ``length_lower`` (the Jones-span bound, 0 when unknown; one
+        bridge and no letters for the unknot)."""
+        return (self.best.bridges <= self.lower_bound
+                and self.best.length <= self.length_lower)
 
     def offer(self, plat: PlatWord, node: int) -> bool:
         """Record ``plat`` (reached at path ``node``) as the best when its key is
