@@ -252,6 +252,11 @@ def test_wrong_move_stops_run_with_exit_3(tmp_path, monkeypatch, capsys):
         yield from real(plat, kinds)
 
     monkeypatch.setattr(moves, "neighbors", bad_neighbors)
+    # the trefoil's canonical 3-letter plat meets both bounds at once (2 bridges, Jones
+    # span 3), which ends a run before any move; keep the run going so the bad move shows
+    from plait.search.engine import SearchContext
+
+    monkeypatch.setattr(SearchContext, "at_optimum", lambda self: False)
     d = tmp_path / "run"
     rc = main(["reduce", "--braid", "1 1 1", "--strategy", "beam", "--steps", "50",
                "--run-dir", str(d), "--quiet"])
