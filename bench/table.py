@@ -3,7 +3,7 @@
 Usage::
 
     .venv/bin/python bench/table.py [--max-crossings 12] [--min-crossings 3] [--every 1]
-                                    [--steps 200] [--time SECONDS]
+                                    [--steps 200] [--time SECONDS] [--sample N --seed S]
 
 For every KnotInfo knot in the crossing range (every ``--every``-th one) runs
 :func:`plait.bridge.bridge_report` on the table's ``pd_notation`` with the given search
@@ -11,8 +11,11 @@ budget (``--steps``, or ``--time`` seconds per knot) and prints one row per cros
 number and a total: knots, upper bound equal to KnotInfo's ``bridge_index`` (%, target
 100), certified lower = upper (%, target >= 95), contradictions (a lower bound above the
 table value or an upper bound below it; must be 0), median length / crossing number of
-the returned plat (target <= 1.3), median and 95th-percentile CPU seconds per knot
+the returned plat (target <= 1.3) and its 90th percentile, the share of plats whose
+length equals the crossing number, the share proved minimal by the Jones span
+(``length_lower``), median and 95th-percentile CPU seconds per knot
 (target median <= 2 s). Knots whose table bridge index is a range are skipped.
+``--sample N`` takes N knots drawn at random (``--seed``) from the range instead.
 Source of the table values: KnotInfo via database-knotinfo.
 """
 
@@ -38,10 +41,16 @@ def _p95(xs: list[float]) -> float:
     return xs[min(len(xs) - 1, int(0.95 * len(xs)))]
 
 
+def _p90(xs: list[float]) -> float:
+    xs = sorted(xs)
+    return xs[min(len(xs) - 1, int(0.9 * len(xs)))]
+
+
 def _row(label: str, s: dict) -> None:
     n = s["n"]
     print(f"{label:>4} {n:>6} {100 * s['upper'] / n:>8.1f} {100 * s['cert'] / n:>8.1f} "
-          f"{s['contra']:>7} {statistics.median(s['ratio']):>10.2f} "
+          f"{s['contra']:>7} {statistics.median(s['ratio']):>10.3f} {_p90(s['ratio']):>8.3f} "
+          f"{100 * s['exact'] / n:>8.1f} {100 * s['proved'] / n:>8.1f} "
           f"{statistics.median(s['time']):>8.3f} {_p95(s['time']):>8.3f}")
 
 
@@ -52,28 +61,48 @@ def main(argv: list[str] | None = None) -> int:
     ap.add_argument("--every", type=int, default=1, help="take every k-th knot")
     ap.add_argument("--steps", type=int, default=200, help="search steps per knot")
     ap.add_argument("--time", type=float, default=None, help="search seconds per knot")
+    ap.add_argument("--sample", type=int, default=None,
+                    help="only N knots drawn at random from the range")
+    ap.add_argument("--seed", type=int, default=0, help="seed of --sample and the search")
     args = ap.parse_args(argv)
     rows = [k for k in knots(args.max_crossings, args.min_crossings)[:: args.every]
             if k.bridge_index is not None]
+    if args.sample is not None and args.sample < len(rows):
+        import random
+
+        pick = sorted(random.Random(args.seed).sample(range(len(rows)), args.sample))
+        rows = [rows[i] for i in pick]
     steps = None if args.time is not None else args.steps
     by_c: dict[int, dict] = {}
     with tempfile.TemporaryDirectory(prefix="plait-bench-table-") as tmp:
         for i, k in enumerate(rows):
             t0 = time.process_time()
             r = bridge_report(validate_pd(k.pd), steps=steps, time=args.time,
-                              run_dir=os.path.join(tmp, str(i)), handle_signals=False)
+                              seed=args.seed, run_dir=os.path.join(tmp, str(i)),
+                              handle_signals=False)
             dt = time.process_time() - t0
             s = by_c.setdefault(k.crossings, {"n": 0, "upper": 0, "cert": 0, "contra": 0,
-                                              "ratio": [], "time": []})
+                                              "ratio": [], "time": [], "exact": 0,
+                                              "proved": 0})
+            s["exact"] += r.result.length == k.crossings
+            s["proved"] += bool(r.search.get("length_minimal"))
+            assert r.search.get("length_lower", 0) <= k.crossings, k.name  # KMT 1987
             s["n"] += 1
             s["upper"] += r.upper == k.bridge_index
             s["cert"] += r.certified
             s["contra"] += r.lower > k.bridge_index or r.upper < k.bridge_index
             s["ratio"].append(r.result.length / k.crossings)
             s["time"].append(dt)
+    what = (f"a sample of {len(rows)} knots (seed {args.seed})" if args.sample is not None
+            else f"{len(rows)} knots")
+    budget = f"{args.time:g} s" if args.time is not None else f"{steps} steps"
+    print(f"table benchmark: {what}, {args.min_crossings}..{args.max_crossings} crossings, "
+          f"{budget} per knot, {time.strftime('%Y-%m-%d %H:%M')}")
     print(f"{'cr':>4} {'knots':>6} {'upper=%':>8} {'cert%':>8} {'contra':>7} "
-          f"{'len/cr med':>10} {'t med s':>8} {'t p95 s':>8}")
-    tot = {"n": 0, "upper": 0, "cert": 0, "contra": 0, "ratio": [], "time": []}
+          f"{'len/cr med':>10} {'p90':>8} {'len=cr%':>8} {'proved%':>8} "
+          f"{'t med s':>8} {'t p95 s':>8}")
+    tot = {"n": 0, "upper": 0, "cert": 0, "contra": 0, "ratio": [], "time": [], "exact": 0,
+           "proved": 0}
     for c in sorted(by_c):
         for key in tot:
             tot[key] += by_c[c][key]

@@ -74,7 +74,10 @@ def drawing(pd: PDCode) -> dict:
        on a grid", Inform. Process. Lett. 54 (1995) (the networkx drawing).
     """
     emb = planar_embedding(pd)
-    pos = {v: (int(p[0]), int(p[1])) for v, p in nx.combinatorial_embedding_to_pos(emb).items()}
+    numbered = _integer_labels(emb)
+    names = numbered.graph["names"]
+    pos = {names[i]: (int(p[0]), int(p[1]))
+           for i, p in nx.combinatorial_embedding_to_pos(numbered).items()}
     orient = 0
     for j in range(pd.length):
         cx, cy = pos[("x", j)]
@@ -97,6 +100,23 @@ def drawing(pd: PDCode) -> dict:
     if orient == -1:
         pos = {v: (-x, y) for v, (x, y) in pos.items()}
     return pos
+
+
+def _integer_labels(emb: nx.PlanarEmbedding) -> nx.PlanarEmbedding:
+    # The same embedding on the integers 0..n-1, nodes numbered in sorted order. The
+    # drawing then does not depend on the hash of strings (randomized per process), so
+    # every process draws a diagram the same way: the diagram step of a certificate is
+    # rebuilt exactly by another process. Node names are kept in the attribute "name".
+    names = sorted(emb.nodes)
+    num = {v: i for i, v in enumerate(names)}
+    out = nx.PlanarEmbedding()
+    for v in names:
+        ring = list(emb.neighbors_cw_order(v))
+        out.add_half_edge_first(num[v], num[ring[0]])
+        for k in range(1, len(ring)):
+            out.add_half_edge_cw(num[v], num[ring[k]], num[ring[k - 1]])
+    out.graph["names"] = names
+    return out
 
 
 def _edge_nodes(pd: PDCode) -> dict[tuple[int, int], list]:
@@ -275,8 +295,10 @@ def sweep_plat(lf: Lift, direction: tuple[int, int]) -> PlatWord:
             raise AssertionError("extrema are not at the top and bottom levels")
     nc = len(proj)
 
-    # value of v and w of every chain at every level, exact
-    def at_levels(ch: list[tuple[int, int, int]]) -> list[tuple[Fraction, Fraction]]:
+    # value of v and w of every chain at every level, exact: (vn, wn, d) stands for
+    # (vn / d, wn / d) with an integer d > 0 (the fall of the segment; 1 at a vertex),
+    # so the many sign tests below are integer cross-multiplications
+    def at_levels(ch: list[tuple[int, int, int]]) -> list[tuple[int, int, int]]:
         out = []
         k = 0
         for zl in levels:
@@ -285,16 +307,19 @@ def sweep_plat(lf: Lift, direction: tuple[int, int]) -> PlatWord:
             z0, v0, w0 = ch[k]
             z1, v1, w1 = ch[k + 1]
             if zl == z0:
-                out.append((Fraction(v0), Fraction(w0)))
+                out.append((v0, w0, 1))
             else:
-                f = Fraction(zl - z0, z1 - z0)
-                out.append((v0 + (v1 - v0) * f, w0 + (w1 - w0) * f))
+                d, t = z0 - z1, z0 - zl  # d > t > 0
+                out.append((v0 * d + (v1 - v0) * t, w0 * d + (w1 - w0) * t, d))
         return out
+
+    def frac(x: tuple[int, int, int], slot: int) -> Fraction:
+        return Fraction(x[slot], x[2])
 
     vals = [at_levels(ch) for ch in proj]
     # initial order: by v at the top, then by v one level down (the two legs of a cap)
-    order = sorted(range(nc), key=lambda c: (vals[c][0][0], vals[c][1][0]))
-    tops = [vals[c][0][0] for c in order]
+    order = sorted(range(nc), key=lambda c: (frac(vals[c][0], 0), frac(vals[c][1], 0)))
+    tops = [frac(vals[c][0], 0) for c in order]
     for i in range(0, nc, 2):
         c1, c2 = order[i], order[i + 1]
         if cap[c1] != cap[c2] or (i + 2 < nc and tops[i + 1] == tops[i + 2]):
@@ -303,23 +328,27 @@ def sweep_plat(lf: Lift, direction: tuple[int, int]) -> PlatWord:
     for s in range(len(levels) - 1):
         events = []
         for i in range(nc):
-            vi_hi, vi_lo = vals[i][s][0], vals[i][s + 1][0]
+            hi_i, lo_i = vals[i][s], vals[i][s + 1]
             for j in range(i + 1, nc):
-                d_hi = vi_hi - vals[j][s][0]
-                d_lo = vi_lo - vals[j][s + 1][0]
-                if d_hi == 0:
+                hi_j, lo_j = vals[j][s], vals[j][s + 1]
+                # signs of v_i - v_j at the top and at the bottom of the slab
+                s_hi = hi_i[0] * hi_j[2] - hi_j[0] * hi_i[2]
+                s_lo = lo_i[0] * lo_j[2] - lo_j[0] * lo_i[2]
+                if s_hi == 0:
                     if s == 0 and cap[i] == cap[j]:
                         continue
                     raise Degenerate("two strands meet at a vertex height")
-                if d_lo == 0:
+                if s_lo == 0:
                     if s + 1 == len(levels) - 1 and cup[i] == cup[j]:
                         continue
                     raise Degenerate("two strands meet at a vertex height")
-                if (d_hi > 0) == (d_lo > 0):
+                if (s_hi > 0) == (s_lo > 0):
                     continue
+                d_hi = frac(hi_i, 0) - frac(hi_j, 0)
+                d_lo = frac(lo_i, 0) - frac(lo_j, 0)
                 f = d_hi / (d_hi - d_lo)  # fraction of the way down the slab
-                wi = vals[i][s][1] + (vals[i][s + 1][1] - vals[i][s][1]) * f
-                wj = vals[j][s][1] + (vals[j][s + 1][1] - vals[j][s][1]) * f
+                wi = frac(hi_i, 1) + (frac(lo_i, 1) - frac(hi_i, 1)) * f
+                wj = frac(hi_j, 1) + (frac(lo_j, 1) - frac(hi_j, 1)) * f
                 if wi == wj:
                     raise Degenerate("two strands meet in space")
                 events.append((f, i, j, wi > wj))
@@ -341,7 +370,7 @@ def sweep_plat(lf: Lift, direction: tuple[int, int]) -> PlatWord:
     for i in range(0, nc, 2):
         if cup[order[i]] != cup[order[i + 1]]:
             raise Degenerate("minima overlap in this projection")
-    bots = [vals[c][-1][0] for c in order]
+    bots = [frac(vals[c][-1], 0) for c in order]
     for i in range(1, nc - 1, 2):
         if bots[i] == bots[i + 1]:
             raise Degenerate("minima overlap in this projection")

@@ -115,6 +115,10 @@ def apply_move(plat: PlatWord, record: MoveRecord) -> PlatWord:
     if kind == "flype":
         c = a[0]
         return fast_plat(s, turned(w[:c], s) + w[c:])
+    if kind == "rebridge":
+        from plait.moves.rebridge import decode
+
+        return decode(a).result  # the recorded construction (checked by replay)
     raise ValueError(f"unknown move kind {kind!r}")
 
 

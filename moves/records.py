@@ -17,6 +17,7 @@ __all__ = [
     "BRIDGE_REDUCING_KINDS",
     "GROWING_KINDS",
     "DEFAULT_KINDS",
+    "DIAGRAM_KINDS",
     "ARITY",
     "TOP",
     "BOTTOM",
@@ -56,7 +57,13 @@ PAIRING_KINDS = frozenset({"twist", "swap", "lthread", "rthread"})
 REWRITE_KINDS = frozenset({"cancel", "insert", "commute", "braid", "absorb", "handle", "reduce"})
 #: Half-turn symmetries (not enumerated by default; used to connect two plats).
 SYMMETRY_KINDS = frozenset({"turn", "flype"})
-MOVE_KINDS = PAIRING_KINDS | REWRITE_KINDS | SYMMETRY_KINDS | frozenset({"stab", "destab"})
+#   rebridge (k, seeds.., s, (crossing, arc).., a, b, strands, word..)
+#                           diagram step: the plat rebuilt from a Wirtinger coloring of its
+#                           own diagram with fewer bridges (layout in plait.moves.rebridge)
+#: Moves that rebuild the plat from its diagram rather than rewrite the word.
+DIAGRAM_KINDS = frozenset({"rebridge"})
+MOVE_KINDS = (PAIRING_KINDS | REWRITE_KINDS | SYMMETRY_KINDS | frozenset({"stab", "destab"})
+              | DIAGRAM_KINDS)
 #: Moves that never change the length (useful plateau moves).
 NEUTRAL_KINDS = frozenset({"commute", "braid"})
 #: Moves that can only shorten the word (or remove a bridge).
@@ -66,15 +73,19 @@ BRIDGE_REDUCING_KINDS = frozenset({"destab"})
 #: Moves that always grow the word or the bridge count (random walks, scrambling).
 GROWING_KINDS = frozenset({"insert", "stab"})
 #: What :func:`plait.moves.neighbors` enumerates when ``kinds`` is None: every kind but the
-#: growing ones, the symmetries and the ``reduce`` macro (no finite neighbour list).
-DEFAULT_KINDS = MOVE_KINDS - GROWING_KINDS - SYMMETRY_KINDS - frozenset({"reduce"})
+#: growing ones, the symmetries, the diagram steps and the ``reduce`` macro (no finite
+#: neighbour list).
+DEFAULT_KINDS = (MOVE_KINDS - GROWING_KINDS - SYMMETRY_KINDS - frozenset({"reduce"})
+                 - DIAGRAM_KINDS)
 
 #: Number of integer arguments of each kind (``reduce`` takes at least 2).
 ARITY = {
     "twist": 3, "swap": 3, "lthread": 3, "rthread": 3,
     "cancel": 1, "insert": 2, "commute": 1, "braid": 1, "absorb": 2, "handle": 2,
-    "reduce": 2, "stab": 3, "destab": 2, "turn": 1, "flype": 1,
+    "reduce": 2, "stab": 3, "destab": 2, "turn": 1, "flype": 1, "rebridge": 6,
 }
+#: Kinds whose arity is a minimum (variable-length arguments).
+_VARIADIC = frozenset({"reduce", "rebridge"})
 
 
 @dataclass(frozen=True, slots=True)
@@ -123,7 +134,7 @@ class MoveRecord:
         ):
             raise InputError(f"move: arguments of {kind} must be integers")
         need = ARITY[kind]
-        if (len(args) != need) if kind != "reduce" else (len(args) < need):
+        if (len(args) != need) if kind not in _VARIADIC else (len(args) < need):
             raise InputError(f"move: {kind} takes {need} arguments, got {len(args)}")
         return cls(kind, tuple(args))
 

@@ -29,6 +29,9 @@ class ReplayResult:
         Why that step is invalid ("" when ok).
     steps : int
         Number of steps replayed successfully.
+    constructions : int
+        How many of those were diagram steps (``rebridge``), checked by rebuilding the
+        diagram and rerunning the construction rather than by a rewrite rule.
     """
 
     ok: bool
@@ -36,6 +39,7 @@ class ReplayResult:
     failed_step: int | None
     reason: str
     steps: int = 0
+    constructions: int = 0
 
 
 class StepError(Exception):
@@ -287,6 +291,14 @@ def check_step(
                             "subgroup")
         head = [(strands - x) if x > 0 else -(strands + x) for x in w[:c]]
         return head + w[c:], strands
+    if kind == "rebridge":
+        from plait.moves.rebridge import RebridgeError, check_rebridge
+
+        try:
+            got = check_rebridge(w, strands, a)
+        except RebridgeError as exc:
+            raise StepError(str(exc)) from None
+        return list(got.word), got.strands
     if kind == "destab":
         j, p = a
         if n < 2:
@@ -330,13 +342,19 @@ def replay(start: PlatWord, records: Iterable[MoveRecord | list | dict]) -> Repl
     """
     w = list(start.word)
     strands = start.strands
-    count = 0
+    count = built = 0
     for t, rec in enumerate(records):
         try:
             if not isinstance(rec, MoveRecord):
                 rec = MoveRecord.from_json(rec)
             w, strands = check_step(w, strands, rec)
         except (StepError, ValueError, TypeError, IndexError) as exc:
-            return ReplayResult(False, None, t, f"{rec}: {exc}", count)
+            return ReplayResult(False, None, t, f"{_short(rec)}: {exc}", count, built)
         count += 1
-    return ReplayResult(True, PlatWord(strands, tuple(w)), None, "", count)
+        built += rec.kind == "rebridge"
+    return ReplayResult(True, PlatWord(strands, tuple(w)), None, "", count, built)
+
+
+def _short(rec) -> str:
+    s = str(rec)
+    return s if len(s) <= 80 else s[:77] + "..."

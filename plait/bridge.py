@@ -103,10 +103,12 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
                   runs_root=None) -> BridgeReport:
     """Estimate the bridge number of a link: convert, search, and bound from both sides.
 
-    Upper bounds: the plat built from the input diagram's Wirtinger coloring (a PD code,
-    or the diagram of an input plat or closed braid when that needs fewer bridges), the
-    best plat of a bridges-first search from it (:func:`plait.search.reduce`), and the
-    Wirtinger number of the best plat's own diagram. Lower bounds: the invariants of
+    Runs exactly the search of ``plait reduce`` (:func:`plait.search.reduce`, strategy
+    ``auto``, objective ``bridges``), so both commands give the same best plat for the
+    same input, seed and step budget; this function only adds the report. Upper bounds:
+    the plat built from the input diagram's Wirtinger coloring (a PD code), the diagram
+    steps of the search (plats rebuilt from Wirtinger colorings of visited plats'
+    diagrams) and its best plat. Lower bounds: the invariants of
     :func:`plait.scoring.bounds.bridge_lower_bound`, as computed by the search.
 
     Parameters
@@ -115,7 +117,7 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
     time, steps, seed, run_dir, quiet, handle_signals, runs_root
         Passed to :func:`plait.search.reduce` (``steps=0`` skips the search moves).
     wirtinger_time : float
-        Seconds for each Wirtinger solve.
+        Seconds for the Wirtinger solve of an input PD code (the report's reason).
 
     Returns
     -------
@@ -128,38 +130,35 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
     .. [2] J. S. Birman, "On the stable equivalence of plat representations of knots and
        links", Canad. J. Math. 28 (1976).
     """
-    from plait.convert import to_plat
     from plait.search import reduce
 
     upper_reasons: list[str] = []
     wirt: Wirtinger | None = None
     if isinstance(pres, PDCode):
-        start, wirt, why = _diagram_bound(pres, wirtinger_time, "the input diagram")
+        # the same conversion reduce makes (deterministic), kept here for its reason
+        _p, wirt, why = _diagram_bound(pres, wirtinger_time, "the input diagram")
         upper_reasons.append(why)
-    else:
-        start = to_plat(pres)
-        upper_reasons.append(f"the input as a plat has {start.bridges} bridges")
-        pd = _pd_or_none(start)
-        if pd is not None and pd.length:
-            p2, w2, why = _diagram_bound(pd, wirtinger_time, "the input plat's diagram")
-            if p2.bridges < start.bridges:
-                start, wirt = p2, w2
-                upper_reasons.append(why)
     kw = {} if runs_root is None else {"runs_root": runs_root}
-    res = reduce(start, time=time, steps=steps, seed=seed, run_dir=run_dir, quiet=quiet,
+    # one answer: the search path of plait reduce, with its defaults (strategy auto,
+    # objective bridges); its diagram steps rebuild plats from Wirtinger colorings
+    res = reduce(pres, time=time, steps=steps, seed=seed, run_dir=run_dir, quiet=quiet,
                  objective="bridges", handle_signals=handle_signals, **kw)
-    best = res.result
+    best, start = res.result, res.input
     search = res.to_json()
+    if not isinstance(pres, PDCode):
+        upper_reasons.append(f"the input as a plat has {start.bridges} bridges")
+    steps_wirt = _diagram_steps(res)
+    for t, plat_before, data in steps_wirt:
+        upper_reasons.append(
+            f"diagram step {t} of the certificate: the diagram of a {plat_before.bridges}-"
+            f"bridge plat on the path has a Wirtinger coloring from {data.number} seeds; its "
+            f"bridge position gives a plat with {data.number} bridges (Blair–Kjuchukova–"
+            f"Ozawa: the Wirtinger number of a diagram is its perpendicular bridge number)")
+    if wirt is None and steps_wirt:
+        wirt = _wirtinger_of(*steps_wirt[-1][1:])
     if best.bridges < start.bridges:
         upper_reasons.append(f"the search found a plat with {best.bridges} bridges "
                              f"(certificate {res.certificate})")
-    # the best plat's own diagram may need fewer bridges still
-    pd = _pd_or_none(best)
-    if pd is not None and pd.length and best.bridges > max(res.lower, 1):
-        p3, _w3, why = _diagram_bound(pd, wirtinger_time, "the best plat's diagram")
-        if p3.bridges < best.bridges:
-            best = p3
-            upper_reasons.append(why + " (beyond the certificate, guarded by Jones)")
     upper = best.bridges
     lower = res.lower
     if lower > upper:  # pragma: no cover - would be a contradiction between theorems
@@ -167,12 +166,14 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
     rep = BridgeReport(lower, upper, list(res.reasons), upper_reasons, best, wirt, search)
     if best.components == 1 and res.status != "interrupted":
         # a composite knot: bound its factors and add (Schubert 1954)
+        from plait.convert import to_plat
         from plait.diagrams.composite import visited_diagrams, with_factors
 
         given = pres if isinstance(pres, PDCode) else _pd_or_none(to_plat(pres))
         diagrams = chain([("the input diagram", given),
                           ("the start plat's diagram", _pd_or_none(start)),
-                          ("the best plat's diagram", pd)], visited_diagrams(res.certificate))
+                          ("the best plat's diagram", _pd_or_none(best))],
+                         visited_diagrams(res.certificate))
         rep = with_factors(rep, diagrams, time=time, steps=steps, seed=seed,
                            wirtinger_time=wirtinger_time, handle_signals=handle_signals,
                            runs_root=runs_root,
@@ -187,3 +188,33 @@ def _pd_or_none(plat: PlatWord) -> PDCode | None:
         return validate_pd(plat_to_pd(plat).crossings)
     except InputError:
         return None
+
+
+def _diagram_steps(res) -> list:
+    """``(1-based step, plat before, RebridgeData)`` of every diagram step on the
+    certificate of a search result (the plats by the fast replay)."""
+    from plait.moves import apply_move, load_certificate
+    from plait.moves.rebridge import decode
+
+    if not res.certificate:
+        return []
+    cert = load_certificate(res.certificate)
+    out = []
+    plat = cert.start
+    for t, rec in enumerate(cert.records, start=1):
+        if rec.kind == "rebridge":
+            out.append((t, plat, decode(rec.args)))
+        plat = apply_move(plat, rec)
+    return out
+
+
+def _wirtinger_of(plat: PlatWord, data) -> Wirtinger:
+    # the recorded seeds and coloring of a diagram step, on the arcs of the plat's diagram
+    from plait.diagrams.wirtinger import ColoringStep, diagram_arcs
+
+    arcs = diagram_arcs(plat_to_pd(plat))
+    steps = []
+    for t, (j, a) in enumerate(data.steps, start=1):
+        i, u = arcs.under_in[j], arcs.under_out[j]
+        steps.append(ColoringStep(t, j, a, u if a == i else i, arcs.over[j]))
+    return Wirtinger(data.number, tuple(data.seeds), tuple(steps), False, "recorded", arcs)

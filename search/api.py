@@ -17,6 +17,8 @@ from plait.errors import GuardViolation, InputError
 from plait.formats import presentation_from_obj, presentation_to_obj
 from plait.scoring.objective import make_objective
 from plait.search.engine import (
+    OMEGA_LENGTH_FACTOR,
+    OMEGA_LENGTH_SLACK,
     SearchContext,
     rng_state_from_json,
     rng_state_to_json,
@@ -38,6 +40,12 @@ CHECKPOINT_EVERY = 3.0
 BEST_EVERY = 0.5
 # Greedy isolating moves tried on the start plat before the strategy begins.
 INITIAL_SEEK = 40
+# Least number of steps between two diagram steps from bests with equal bridge counts.
+OMEGA_BEST_EVERY = 40
+# Steps without a new best after which a longer best gets a diagram step too; with a
+# time budget only, also after this share of the budget without a new best.
+OMEGA_STALL = 400
+OMEGA_STALL_SHARE = 0.2
 
 
 @dataclass
@@ -74,6 +82,15 @@ class ReduceResult:
     steps: int = 0
     explored: int = 0
     elapsed: float = 0.0
+    length_lower: int = 0
+    length_reason: str = ""
+    diagram_steps: int = 0
+
+    @property
+    def length_minimal(self) -> bool:
+        """True when the result's length equals the Jones-span lower bound: no plat of
+        the link has fewer letters."""
+        return self.result.length <= self.length_lower
 
     def to_json(self) -> dict:
         """The JSON contract of ``plait reduce --json``."""
@@ -99,6 +116,10 @@ class ReduceResult:
             "steps": self.steps,
             "explored": self.explored,
             "elapsed": round(self.elapsed, 3),
+            "length_lower": self.length_lower,
+            "length_reason": self.length_reason,
+            "length_minimal": self.length_minimal,
+            "diagram_steps": self.diagram_steps,
         }
 
 
@@ -160,6 +181,8 @@ class _Run:
         self.best_found = 0.0       # elapsed seconds when the current best was found
         self.ctx: SearchContext | None = None
         self.strategy = None
+        # [word hash, steps, bridges] of the last best given a diagram step
+        self.omega_tried: list | None = None
 
     def elapsed(self) -> float:
         return self.elapsed_before + (_time.monotonic() - self.t0)
@@ -172,7 +195,9 @@ class _Run:
         kinds = tuple(cfg["kinds"]) if cfg.get("kinds") else None
         ctx = SearchContext(self.start, self.objective, random.Random(cfg["seed"]), 1, kinds)
         self.ctx = ctx
+        ctx.length_lower = self._length_lower()
         ctx.on_best = self._on_best
+        ctx.on_diagram = self._on_diagram
         # first the cheap part: canonical form and a greedy hunt for stabilizations
         plat, node = ctx.canonical(self.start, 0)
         plat, node = ctx.destabilize(plat, node, seek=INITIAL_SEEK)
@@ -210,18 +235,62 @@ class _Run:
         ctx.explored = state["explored"]
         ctx.improvements = state["improvements"]
         self.ctx = ctx
+        ctx.length_lower = self._length_lower()
         self.elapsed_before = state["elapsed"]
         self.t0 = _time.monotonic()
         self.verified_node, self.verified_plat = ctx.best_node, ctx.best
+        self.omega_tried = state.get("omega_tried")
         ctx.on_best = self._on_best
+        ctx.on_diagram = self._on_diagram
         self.strategy = make_strategy(cfg["strategy"], ctx, cfg.get("params"), self.budget,
                                       self.elapsed, state["strategy"])
         self.folder.log("resume", steps=ctx.steps, elapsed=round(self.elapsed_before, 3))
+
+    def _length_lower(self) -> int:
+        """The Jones-span length bound from the input's cheap fingerprint (0 when its
+        Jones polynomial was not computed): the search stops when the best meets it and
+        the bridge bound."""
+        from plait.scoring.lengthbound import length_lower_bound
+
+        v = getattr(self.fp_cheap, "jones", None)
+        if v is None:
+            return 0
+        return length_lower_bound(self.start, jones_poly=v).value
+
+    def _diagram_best(self, final: bool = False) -> None:
+        """The diagram step from the best plat while its bridges exceed the lower bound:
+        once per best, and for bests with as many bridges as the last one tried at most
+        once per ``OMEGA_BEST_EVERY`` steps (the last try is checkpointed)."""
+        ctx = self.ctx
+        h = word_hash(ctx.best)
+        if ctx.best.bridges <= ctx.lower_bound:
+            return
+        last = self.omega_tried
+        stalled = final or ctx.steps - ctx.best_step >= OMEGA_STALL or (
+            self.budget.steps is None and self.budget.time is not None
+            and self.elapsed() - self.best_found >= OMEGA_STALL_SHARE * self.budget.time)
+        if last is not None and h == last[0]:
+            return  # tried this best
+        if (not final and last is not None and ctx.best.bridges == last[2]
+                and ctx.steps - last[1] < OMEGA_BEST_EVERY):
+            return  # a best with as many bridges was tried lately
+        if (ctx.best.length > OMEGA_LENGTH_FACTOR * ctx.best.bridges + OMEGA_LENGTH_SLACK
+                and not stalled):
+            return  # wait until the search has shortened it, or stalls
+        self.omega_tried = [h, ctx.steps, ctx.best.bridges]
+        got = ctx.diagram_step(ctx.best, ctx.best_node,
+                               length_factor=2 * OMEGA_LENGTH_FACTOR if stalled else None)
+        if got is not None:
+            ctx.offer(*got)
 
     # -- best, guard, certificate ---------------------------------------------------------
     def _on_best(self, plat: PlatWord, node: int) -> None:
         self.best_dirty = True
         self.best_found = self.elapsed()
+
+    def _on_diagram(self, plat: PlatWord) -> None:
+        self.folder.log("diagram", steps=self.ctx.steps, bridges=plat.bridges,
+                        length=plat.length)
 
     def _write_best(self, force: bool = False) -> None:
         """Guard the best (cheap fingerprint) and write best.json and the certificate."""
@@ -290,6 +359,7 @@ class _Run:
             "reasons": self.reasons,
             "best": {"strands": best.strands, "word": list(best.word), "node": best_node},
             "best_step": ctx.best_step,
+            "omega_tried": self.omega_tried,
             "rng": rng_state_to_json(ctx.rng),
             "strategy": self.strategy.state(),
             "paths": ctx.paths.to_json(live),
@@ -320,6 +390,9 @@ class _Run:
         try:
             while (self._budget_left() and self.interrupt is None
                    and not self.ctx.at_optimum()):
+                # the diagram step from the best (the start plat first, after the first
+                # checkpoint, so that a kill -9 during it can be resumed)
+                self._diagram_best()
                 self.strategy.step()
                 self._write_best()
                 if _time.monotonic() - self.last_checkpoint >= self.checkpoint_every:
@@ -328,6 +401,9 @@ class _Run:
                                     elapsed=round(self.elapsed(), 3))
                 if bar is not None:
                     self._bar_update(bar)
+            if self.interrupt is None and not self.ctx.at_optimum():
+                # budget used up: a last diagram step from the best not tried yet
+                self._diagram_best(final=True)
             self._write_best(force=True)
             if bar is not None:
                 self._bar_update(bar, force=True)
@@ -357,13 +433,18 @@ class _Run:
         return self._result("done")
 
     def _result(self, status: str) -> ReduceResult:
+        from plait.scoring.lengthbound import length_lower_bound
+
         ctx = self.ctx
+        lb = length_lower_bound(self.verified_plat)
+        built = sum(r.kind == "rebridge" for r in ctx.paths.records(self.verified_node))
         return ReduceResult(
             input=self.start, result=self.verified_plat, lower=self.lower,
             reasons=list(self.reasons), guards="passed",
             certificate=str(self.folder.certificate_path), run_dir=str(self.folder.path),
             status=status, strategy=self.config["strategy"], seed=self.config["seed"],
-            steps=ctx.steps, explored=ctx.explored, elapsed=self.elapsed())
+            steps=ctx.steps, explored=ctx.explored, elapsed=self.elapsed(),
+            length_lower=lb.value, length_reason=lb.reason, diagram_steps=built)
 
     # -- progress ------------------------------------------------------------------------
     def _bar(self):

@@ -29,6 +29,11 @@ class AStarParams:
         The open list is cut back to this many best entries when it doubles.
     closed_cap : int
         How many canonical words the closed set remembers.
+    omega_every : int
+        Every this many expansions of a state with bridges above the lower bound (0:
+        never), the Wirtinger number of its diagram is computed (cached by canonical
+        word); where it is below the bridge count the diagram step is pushed as a
+        neighbour, and the heuristic of that state's children uses it.
     """
 
     weight: float = 3.0
@@ -36,14 +41,18 @@ class AStarParams:
     iso_weight: float = 0.5
     max_open: int = 1500
     closed_cap: int = 20000
+    omega_every: int = 150
 
 
 def heuristic(plat: PlatWord, lower_bound: int, target_length: int, max_drop: int,
-              iso_weight: float = 0.0) -> float:
+              iso_weight: float = 0.0, omega: int | None = None) -> float:
     """Estimated number of moves from ``plat`` to the target score.
 
     ``h = max(bridges - lower_bound, (length - target_length) / max_drop)``, both parts
     clipped at 0, plus ``iso_weight * (isolation - 1)`` while bridges exceed the bound.
+    With ``omega`` (a Wirtinger number of a diagram at most one move away) the bridge
+    part is at most ``1 + omega - lower_bound``: one diagram step reaches ``omega``
+    bridges.
 
     Admissibility (never overestimating the true number of moves):
 
@@ -74,6 +83,8 @@ def heuristic(plat: PlatWord, lower_bound: int, target_length: int, max_drop: in
        Intelligence 1 (1970).
     """
     hb = max(0, plat.bridges - lower_bound)
+    if omega is not None and omega < plat.bridges:
+        hb = min(hb, 1 + max(0, omega - lower_bound))
     hl = max(0.0, (plat.length - target_length) / max_drop)
     h = max(float(hb), hl)
     if iso_weight and hb > 0:
@@ -111,6 +122,7 @@ class AStarSearch:
             self.closed = BoundedSet(self.p.closed_cap)
             self.target_length = ctx.best.length - 1
             self.restarts = 0
+            self.expanded_above = 0  # expansions of states above the lower bound
             self._push(ctx.best, ctx.best_node, 0)
         else:
             self.counter = state["counter"]
@@ -119,6 +131,7 @@ class AStarSearch:
             self.closed = BoundedSet(self.p.closed_cap, state["closed"])
             self.target_length = state["target_length"]
             self.restarts = state["restarts"]
+            self.expanded_above = state.get("expanded_above", 0)
 
     def live_nodes(self) -> list[int]:
         return [e[4] for e in self.open]
@@ -132,14 +145,15 @@ class AStarSearch:
             "closed": self.closed.to_json(),
             "target_length": self.target_length,
             "restarts": self.restarts,
+            "expanded_above": self.expanded_above,
         }
 
-    def _h(self, plat: PlatWord) -> float:
+    def _h(self, plat: PlatWord, omega: int | None = None) -> float:
         return heuristic(plat, self.ctx.lower_bound, self.target_length, self.p.max_drop,
-                         self.p.iso_weight)
+                         self.p.iso_weight, omega)
 
-    def _push(self, plat: PlatWord, node: int, g: int) -> None:
-        h = self._h(plat)
+    def _push(self, plat: PlatWord, node: int, g: int, omega: int | None = None) -> None:
+        h = self._h(plat, omega)
         self.counter += 1
         heapq.heappush(self.open, [g + self.p.weight * h, h, self.counter, g, node,
                                    plat.strands, plat.word])
@@ -167,13 +181,25 @@ class AStarSearch:
             self._restart()
             return
         improved = ctx.offer(plat, node)
+        # the diagram step, every omega_every expansions of a state above the bound
+        om = None
+        if self.p.omega_every and plat.bridges > ctx.lower_bound:
+            self.expanded_above += 1
+            if self.expanded_above % self.p.omega_every == 1 or self.p.omega_every == 1:
+                got = ctx.diagram_step(plat, node)
+                if got is not None:
+                    if ctx.offer(*got):
+                        improved = True
+                    self._push(got[0], got[1], g + 1)
+            om = ctx.omega(plat)
         for rec, nb in ctx.neighbors(plat):
             if nb.bridges > plat.bridges:
                 continue  # stabilizations only widen the search; A* keeps to the others
             child = ctx.paths.add(node, rec, nb)
             if ctx.offer(nb, child):
                 improved = True
-            self._push(nb, child, g + 1)
+            # a neighbour is one move from plat, whose diagram step reaches om bridges
+            self._push(nb, child, g + 1, None if om is None else om + 1)
         if improved:
             self._retarget()
         if len(self.open) > 2 * self.p.max_open:

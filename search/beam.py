@@ -43,6 +43,13 @@ class BeamParams:
         bound; 0 turns the lookahead off.
     lookahead_every : int
         Generations between two lookaheads.
+    omega_every : int
+        Generations between two diagram steps (0: never): the Wirtinger number of the
+        diagrams of the ``omega_top`` states of the new beam first in the bridge lane's
+        order is computed (cached by canonical word), and where it is below the bridge
+        count the rebuilt plat joins the beam in front.
+    omega_top : int
+        States looked at per diagram step.
     """
 
     width: int = 24
@@ -56,6 +63,8 @@ class BeamParams:
     visited_cap: int = 20000
     lookahead: int = 6
     lookahead_every: int = 2
+    omega_every: int = 15
+    omega_top: int = 1
 
 
 class BeamSearch:
@@ -183,6 +192,7 @@ class BeamSearch:
             rest[j], rest[-1] = rest[-1], rest[j]
             take(rest.pop())
         self._lookahead(new_beam)
+        self._diagram(new_beam)
         for p, _ in new_beam:
             self.visited.add(word_hash(p))
         self.generation += 1
@@ -193,6 +203,24 @@ class BeamSearch:
             self._restart()
         else:
             self.beam = new_beam
+
+    def _diagram(self, new_beam: list[tuple[PlatWord, int]]) -> None:
+        """Diagram steps from the states of the new beam that lead the bridge lane (see
+        :meth:`SearchContext.diagram_step`); a state with fewer bridges joins in front."""
+        ctx = self.ctx
+        if (not self.p.omega_every or self.generation % self.p.omega_every
+                or not new_beam):
+            return
+        cands = sorted((ctx.guide_key(p), p.strands, p.word, i)
+                       for i, (p, _) in enumerate(new_beam) if p.bridges > ctx.lower_bound)
+        front = []
+        for *_, i in cands[: self.p.omega_top]:
+            plat, node = new_beam[i]
+            got = ctx.diagram_step(plat, node)
+            if got is not None and word_hash(got[0]) not in self.visited:
+                front.append(got)
+                ctx.offer(*got)
+        new_beam[:0] = front
 
     def _lookahead(self, new_beam: list[tuple[PlatWord, int]]) -> None:
         """Seek a destabilization from the most isolated state of the new beam: greedy

@@ -12,7 +12,17 @@ import plait.moves as _moves
 from plait.scoring.objective import Objective, isolation
 from plait.word import PlatWord
 
+#: Deterministic seconds of CP-SAT per Wirtinger number computed inside a search.
+OMEGA_TIME = 0.5
+#: Diagram steps are tried on plats of at most this many letters per bridge.
+OMEGA_LENGTH_FACTOR = 4
+#: Letters allowed on top of ``OMEGA_LENGTH_FACTOR`` per bridge.
+OMEGA_LENGTH_SLACK = 12
+#: Steps of the budget charged per diagram step tried.
+OMEGA_STEP_COST = 25
+
 __all__ = [
+    "OMEGA_TIME",
     "word_hash",
     "PathStore",
     "SearchContext",
@@ -202,7 +212,20 @@ class SearchContext:
         self.steps = 0          # work units done (the --steps budget counts these)
         self.explored = 0       # neighbours generated
         self.improvements = 0   # number of new bests
+        self.length_lower = 0   # no plat of the link has fewer letters (plait.scoring.lengthbound)
         self.on_best: Callable[[PlatWord, int], None] | None = None
+        # the diagram step (plait.moves.rebridge): omega[word hash of a canonical plat]
+        # = (seed count found for its diagram, the step or None); first in, first out.
+        # Not checkpointed: a resumed run recomputes the same values (the solver runs
+        # on one worker with a deterministic time limit).
+        self.omega_cache: OrderedDict[int, tuple[int, object]] = OrderedDict()
+        self.omega_cap = 4096
+        self.omega_time = OMEGA_TIME  # deterministic seconds per CP-SAT call
+        self.omega_directions = 1     # projection directions tried per construction
+        self.omega_calls = 0          # solver calls made (cache misses)
+        self.diagram_steps = 0        # diagram steps taken
+        # called with the plat before each Wirtinger computation (the run logs it)
+        self.on_diagram: Callable[[PlatWord], None] | None = None
 
     # -- the move graph, always looked up at call time (tests monkeypatch it) ------------
     def neighbors(self, plat: PlatWord, kinds=None) -> Iterator[tuple[object, PlatWord]]:
@@ -235,18 +258,83 @@ class SearchContext:
     def apply(self, plat: PlatWord, rec) -> PlatWord:
         return _moves.apply_move(plat, rec)
 
+    # -- the diagram step ---------------------------------------------------------------
+    def omega(self, plat: PlatWord) -> int | None:
+        """The cached Wirtinger bound of ``plat``'s diagram (an upper bound on the bridge
+        number one diagram step away), or None when it was not computed."""
+        hit = self.omega_cache.get(word_hash(plat))
+        return None if hit is None else hit[0]
+
+    def _omega_entry(self, plat: PlatWord) -> tuple[int, object]:
+        from plait.moves.rebridge import construct
+
+        h = word_hash(plat)
+        hit = self.omega_cache.get(h)
+        if hit is None:
+            self.omega_calls += 1
+            if self.on_diagram is not None:
+                self.on_diagram(plat)
+            hit = construct(plat, time_limit=self.omega_time, directions=self.omega_directions)
+            self.omega_cache[h] = hit
+            while len(self.omega_cache) > self.omega_cap:
+                self.omega_cache.popitem(last=False)
+        return hit
+
+    def diagram_step(self, plat: PlatWord, node: int,
+                     length_factor: int | None = None) -> tuple[PlatWord, int] | None:
+        """The diagram step from ``plat`` (at path ``node``) when its diagram's Wirtinger
+        number is below its bridge count: the rebuilt plat in canonical form with
+        visible stabilizations removed, and its path node; else None. Plats longer than
+        ``length_factor`` (default :data:`OMEGA_LENGTH_FACTOR`) letters per bridge are
+        skipped (plus :data:`OMEGA_LENGTH_SLACK`): the construction's cost grows with the
+        length.
+
+        References
+        ----------
+        .. [1] R. Blair, A. Kjuchukova, M. Ozawa, "The incompatibility of crossing number
+           and bridge number for knot diagrams", Discrete Math. 344 (2021).
+        """
+        if plat.bridges <= self.lower_bound or "rebridge" not in self._allowed():
+            return None
+        factor = OMEGA_LENGTH_FACTOR if length_factor is None else length_factor
+        if plat.length > factor * plat.bridges + OMEGA_LENGTH_SLACK:
+            return None  # long diagrams cost seconds and rarely color from fewer seeds
+        # a solver call costs about as much time as this many expansions; charged on a
+        # cache hit too, so a resumed run (empty cache) counts exactly like the original
+        self.steps += OMEGA_STEP_COST
+        _number, data = self._omega_entry(plat)
+        if data is None:
+            return None
+        from plait.moves.rebridge import encode
+
+        self.diagram_steps += 1
+        new = data.result
+        node = self.paths.add(node, encode(data), new)
+        new, node = self.canonical(new, node)
+        new, node = self.destabilize(new, node)
+        return new, node
+
+    def _allowed(self) -> frozenset:
+        return _moves.MOVE_KINDS if self.kinds is None else frozenset(self.kinds)
+
     # -- scoring --------------------------------------------------------------------------
     def key(self, plat: PlatWord) -> tuple:
         return self.objective.key(plat)
 
     def guide_key(self, plat: PlatWord) -> tuple:
-        """Key of the bridge-seeking lane: fewest bridges, then the most isolated pair
+        """Key of the bridge-seeking lane: the Wirtinger bound of the plat's diagram when
+        it is cached (else the bridges), then fewest bridges, then the most isolated pair
         (a stabilization becomes visible at isolation 1), then length."""
-        return (plat.bridges, isolation(plat), plat.length)
+        om = self.omega(plat)
+        b = plat.bridges if om is None else min(om, plat.bridges)
+        return (b, plat.bridges, isolation(plat), plat.length)
 
     def at_optimum(self) -> bool:
-        """True when nothing can beat the best (one bridge and no letters: the unknot)."""
-        return self.best.bridges <= self.lower_bound and self.best.length == 0
+        """True when nothing can beat the best: its bridges meet the certified lower bound
+        and its length meets ``length_lower`` (the Jones-span bound, 0 when unknown; one
+        bridge and no letters for the unknot)."""
+        return (self.best.bridges <= self.lower_bound
+                and self.best.length <= self.length_lower)
 
     def offer(self, plat: PlatWord, node: int) -> bool:
         """Record ``plat`` (reached at path ``node``) as the best when its key is

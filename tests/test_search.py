@@ -252,6 +252,11 @@ def test_wrong_move_stops_run_with_exit_3(tmp_path, monkeypatch, capsys):
         yield from real(plat, kinds)
 
     monkeypatch.setattr(moves, "neighbors", bad_neighbors)
+    # the trefoil's canonical 3-letter plat meets both bounds at once (2 bridges, Jones
+    # span 3), which ends a run before any move; keep the run going so the bad move shows
+    from plait.search.engine import SearchContext
+
+    monkeypatch.setattr(SearchContext, "at_optimum", lambda self: False)
     d = tmp_path / "run"
     rc = main(["reduce", "--braid", "1 1 1", "--strategy", "beam", "--steps", "50",
                "--run-dir", str(d), "--quiet"])
@@ -282,18 +287,28 @@ def test_guard_violation_from_api(tmp_path, monkeypatch):
         reduce(_plat_of("4_1"), strategy="beam", steps=30, run_dir=tmp_path / "r")
 
 
-def test_cli_reduce_points_to_the_diagram_route_when_not_minimal(tmp_path, capsys):
-    # The braid 1 2 -1 2 3 -2 3 -2 1 closes to a knot of determinant 3 (a 4-bridge plat);
-    # with no search steps the result stays at 4 bridges against a lower bound of 2, so
-    # the human report says it is not proved minimal and names the diagram route.
-    # Wirtinger number = an independent upper bound (Blair–Kjuchukova–Ozawa 2021).
+def test_cli_reduce_takes_the_diagram_step_and_drops_the_hint(tmp_path, capsys):
+    # The braid 1 2 -1 2 3 -2 3 -2 1 closes to a knot of determinant 3 as a 4-bridge plat.
+    # Even with no search steps, reduce takes the diagram step: its own diagram has a
+    # Wirtinger coloring from 2 seeds, whose bridge position is a 2-bridge plat
+    # (Blair–Kjuchukova–Ozawa 2021), at the lower bound 2, so no hint is printed.
     rc = main(["reduce", "--braid", "1 2 -1 2 3 -2 3 -2 1", "--steps", "0",
                "--run-dir", str(tmp_path / "r"), "--quiet"])
     out = capsys.readouterr().out
     assert rc == 0
-    assert "result: 4 bridges (lower bound 2)" in out
-    assert "hint:   not proved minimal; 'plait bridge'" in out
-    # the 2-bridge candidate's homomorphism counts are folded into one item of the reason
+    assert "result: 2 bridges (certified minimal)" in out
+    assert "1 diagram step" in out and "hint:" not in out
+    assert "length: at least" in out
+    # without diagram steps (the move kinds restricted) it stays at 4 bridges against a
+    # lower bound of 2: not proved minimal, with the hint and the folded reason
+    from plait.commands.reduce import report
+
+    braid = ClosedBraid.from_word([1, 2, -1, 2, 3, -2, 3, -2, 1])
+    res = reduce(braid, steps=0, run_dir=tmp_path / "k", kinds=sorted(moves.DEFAULT_KINDS))
+    capsys.readouterr()
+    report(res, False)
+    out = capsys.readouterr().out
+    assert "lower bound 2" in out and "hint:   not proved minimal" in out
     assert "numbers of homomorphisms onto S4/transposition, S5/transposition" in out
     assert "number of homomorphisms onto" not in out
     # a certified result gets no hint

@@ -135,3 +135,43 @@ def test_resume_of_a_foreign_folder_leaves_no_lock_file(tmp_path, capsys):
     assert main(["resume", str(tmp_path)]) == 2
     assert sorted(p.name for p in tmp_path.iterdir()) == ["notes.txt"]
     assert "not a run folder" in capsys.readouterr().err
+
+
+DIAGRAM_STEPS = 600
+
+
+def test_kill_9_during_a_diagram_step_then_resume(tmp_path, capsys):
+    # A scrambled 9_28 (KnotInfo bridge index 3) whose search takes a diagram step: the
+    # process is killed as soon as the run logs the start of a Wirtinger computation
+    # (the solver and the construction take far longer than the kill), then resumed; the
+    # result equals an uninterrupted run with the same seed and step budget.
+    # source: KnotInfo via database-knotinfo (braid notation of 9_28)
+    clean = ClosedBraid.from_word(knot("9_28").braid).to_plat()
+    scr, _ = moves.scramble(clean, seed=2)
+    path = tmp_path / "scr.json"
+    path.write_text(json.dumps(presentation_to_obj(scr)))
+    ref = reduce(scr, strategy="auto", steps=DIAGRAM_STEPS, seed=SEED, run_dir=tmp_path / "ref")
+    assert ref.diagram_steps >= 1
+    run_dir = tmp_path / "k"
+    cmd = [sys.executable, "-m", "plait.cli", "reduce", "--file", str(path), "--strategy",
+           "auto", "--steps", str(DIAGRAM_STEPS), "--seed", str(SEED), "--run-dir",
+           str(run_dir), "--checkpoint-every", "0.2", "--quiet", "--json"]
+    proc = subprocess.Popen(cmd, stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
+    log = run_dir / "log.jsonl"
+    deadline = time.monotonic() + 120
+    while time.monotonic() < deadline:
+        assert proc.poll() is None, "the run ended before its diagram step"
+        if log.exists() and '"event": "diagram"' in log.read_text():
+            break
+        time.sleep(0.005)
+    else:
+        raise AssertionError("no diagram step was logged")
+    proc.kill()
+    assert proc.wait() == -signal.SIGKILL
+    last = json.loads(log.read_text().splitlines()[-1])
+    assert last["event"] == "diagram"  # nothing was logged after the step began
+    out = _resume_json(run_dir, capsys)
+    r = ref.to_json()
+    for key in ("result", "input", "bridge_bounds", "steps", "diagram_steps"):
+        assert out[key] == r[key], key
+    assert moves.verify_certificate(out["certificate"]).ok

@@ -41,14 +41,17 @@ def report(res, as_json: bool) -> int:
         print(f"word:   {r if r.word else '(empty)'}  (strands {r.strands})")
         for reason in res.reasons:
             print(f"bound:  {reason}")
-        print(f"guards: {res.guards}; certificate: {res.certificate}")
+        proved = "; the length is proved minimal for plats" if res.length_minimal else ""
+        print(f"length: at least {res.length_lower} crossings: {res.length_reason}{proved}")
+        print(f"guards: {res.guards}; certificate: {res.certificate}"
+              + (f" ({res.diagram_steps} diagram step{'s' * (res.diagram_steps != 1)})"
+                 if res.diagram_steps else ""))
         print(f"run:    {res.run_dir} ({res.steps} steps, {res.explored} states, "
               f"{res.elapsed:.1f} s)")
         if lb < r.bridges and r.bridges >= 3:
-            # the move-graph search can stall above the bridge number; the diagram's
-            # Wirtinger number is an independent upper bound it does not try
-            print("hint:   not proved minimal; 'plait bridge' also builds a plat from the "
-                  "diagram's Wirtinger number, which may need fewer bridges")
+            # the search (diagram steps included) may stop above the bridge number
+            print("hint:   not proved minimal; a longer --time gives the search and its "
+                  "diagram steps more tries")
     if res.status == "interrupted":
         sys.stderr.write(f"plait: interrupted; continue with: plait resume {res.run_dir}\n")
         return EXIT_INTERRUPTED

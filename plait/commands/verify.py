@@ -49,6 +49,8 @@ def run(args: argparse.Namespace) -> int:
         emit_json({
             "valid": res.ok,
             "moves": len(cert.records),
+            "replayed_moves": res.steps - res.constructions if res.ok else None,
+            "constructions": res.constructions if res.ok else None,
             "failed_step": res.failed_step,
             "reason": res.reason,
             "start": {"strands": cert.start.strands, "length": cert.start.length},
@@ -62,6 +64,8 @@ def run(args: argparse.Namespace) -> int:
               f"{cert.end.length} crossings")
         if named:
             print(f"name:  {named}")
+        print(f"steps: {res.steps - res.constructions} replayed moves, {res.constructions} "
+              f"diagram constructions (rebuilt and compared)")
         return 0
     n = len(cert.records)
     if res.failed_step is None:
