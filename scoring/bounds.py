@@ -2,7 +2,9 @@
 
 from __future__ import annotations
 
+import time as _time
 from collections.abc import Callable
+from contextvars import ContextVar
 from dataclasses import dataclass, field
 from fractions import Fraction
 from functools import cache, lru_cache
@@ -15,6 +17,7 @@ __all__ = [
     "not_two_bridge",
     "separating_invariants",
     "FOX_PRIMES",
+    "check_budget",
     "WITNESS_TARGETS",
     "RANK_TARGETS",
 ]
@@ -151,14 +154,28 @@ def _not_two_bridge(plat: PlatWord, det: int) -> tuple[bool, str]:
         return True, f"determinant {det} is odd; a 2-component 2-bridge link S(p,q) has p even"
     if comps == 1 and det % 2 == 0:
         return True, f"determinant {det} is even; a 2-bridge knot S(p,q) has p odd"
+    why = _listing_free_obstruction(plat, det)
+    if why is not None:
+        return True, why
+    if _out_of_time():
+        return False, _not_tried("listing the 2-bridge candidates")
     if det > MAX_DETERMINANT:
-        return False, (f"determinant {det} is too large to list its 2-bridge candidates "
-                       f"(limit {MAX_DETERMINANT})")
+        return False, (f"not tried: listing the 2-bridge candidates of determinant {det} "
+                       f"(over the limit of {MAX_DETERMINANT} for its cost); "
+                       f"{_LISTING_FREE_PASSED}")
     classes = two_bridge_classes(det)
+    classes, cut = _linking_form_cut(plat, det, classes)
+    kind = "knot" if comps == 1 else "2-component link"
+    if not classes:
+        return True, (f"every 2-bridge {kind} of determinant {det} is one of the Schubert "
+                      f"normal forms S({det},q) (mirrors included): {cut}")
     invariants = separating_invariants(comps)
     ours: dict[int, object] = {}
     used: dict[str, list[str]] = {}
-    for q in classes:
+    for done, q in enumerate(classes):
+        if done % 16 == 15 and _out_of_time():
+            return False, _not_tried(f"comparing the 2-bridge candidates of determinant "
+                                     f"{det} after {done} of {len(classes)}")
         ruled = None
         for i, (name, fn) in enumerate(invariants):
             if i not in ours:
@@ -173,10 +190,119 @@ def _not_two_bridge(plat: PlatWord, det: int) -> tuple[bool, str]:
             return False, (f"{_describe(det, q)} agrees with it on every invariant computed "
                            f"({_summarize(tried)}); it may be 2-bridge")
         used.setdefault(ruled, []).append(_describe(det, q))
-    kind = "knot" if comps == 1 else "2-component link"
     listing = "; ".join(f"{', '.join(names)} by the {inv}" for inv, names in used.items())
+    if cut:
+        listing = f"{cut}; the other {len(classes)}: {listing}"
+        return True, (f"every 2-bridge {kind} of determinant {det} is one of the Schubert "
+                      f"normal forms S({det},q) (mirrors included) and each differs: "
+                      f"{listing}")
     return True, (f"every 2-bridge {kind} of determinant {det} is one of {len(classes)} "
                   f"Schubert normal forms (mirrors included) and each differs: {listing}")
+
+
+_LISTING_FREE_PASSED = ("its Jones and Alexander polynomials alternate and H_1 of its double "
+                        "branched cover is cyclic, as for a 2-bridge link")
+
+
+def _format_homology(h: tuple[int, ...]) -> str:
+    return " ⊕ ".join("Z" if d == 0 else f"Z/{d}" for d in h) if h else "0"
+
+
+def _listing_free_obstruction(plat: PlatWord, det: int) -> str | None:
+    """A reason why the plat closure (a knot or 2-component link with bridges >= 3) is
+    not 2-bridge that lists no candidates, or None.
+
+    * The double branched cover of ``S(p, q)`` is the lens space ``L(p, q)`` (Schubert
+      1956), so ``H_1`` is cyclic: at most one non-trivial invariant factor of the
+      coloring matrix (:func:`plait.scoring.goeritz.double_cover_homology`).
+    * A 2-bridge link other than the unlink (det 0) is non-split and alternating
+      (Schubert's normal form is a reduced alternating diagram), so its Jones polynomial
+      alternates in sign, has extreme coefficients ``±1`` and span at most the
+      determinant, and a 2-bridge knot's Alexander polynomial alternates in sign
+      (:mod:`plait.scoring.alternating`).
+    """
+    from plait.scoring.alexander import alexander
+    from plait.scoring.alternating import alexander_obstruction, jones_obstruction
+    from plait.scoring.goeritz import double_cover_homology
+    from plait.scoring.jones import MAX_JONES_BRIDGES, jones
+
+    h = double_cover_homology(plat)
+    if len(h) >= 2:
+        return (f"H_1 of the double branched cover is {_format_homology(h)}, not cyclic; the "
+                "double branched cover of a 2-bridge link S(p,q) is the lens space L(p,q) "
+                "(Schubert 1956)")
+    if det == 0:
+        return None  # the unlink is the 2-bridge link of determinant 0: split, not alternating
+    if plat.components == 1:
+        why = alexander_obstruction(alexander(plat))
+        if why is not None:
+            return why + "; a 2-bridge knot is alternating (Schubert normal form)"
+    if plat.bridges <= MAX_JONES_BRIDGES:
+        why = jones_obstruction(jones(plat), det)
+        if why is not None:
+            return why + "; a 2-bridge link is non-split alternating (Schubert normal form)"
+    return None
+
+
+def _linking_form_cut(plat: PlatWord, det: int, classes: tuple[int, ...]
+                      ) -> tuple[tuple[int, ...], str]:
+    """The candidates ``S(det, q)`` whose lens space has the plat closure's linking form
+    (``q/p`` up to squares at each odd prime dividing ``p``: Seifert 1933), and a sentence
+    on those cut (empty when none is)."""
+    from plait.scoring.goeritz import linking_form_class, odd_prime_divisors, square_class
+
+    if det < 3:
+        return classes, ""
+    primes = odd_prime_divisors(det)
+    if not primes:
+        return classes, ""
+    ours = linking_form_class(plat, det, primes)
+    if ours is None:
+        return classes, ""
+    kept = tuple(q for q in classes if square_class(q, det, primes) == ours)
+    if len(kept) == len(classes):
+        return classes, ""
+    return kept, (f"{len(classes) - len(kept)} of the {len(classes)} candidates have another "
+                  f"linking form of the double branched cover (L(p,q) has q/p up to squares "
+                  f"mod each prime of p: Seifert 1933; read from the Goeritz matrix)")
+
+
+# -- the time budget ---------------------------------------------------------------------
+
+#: Monotonic deadline of the bound being computed (None: no budget), and the methods
+#: skipped because it passed.
+_DEADLINE: ContextVar[float | None] = ContextVar("bounds_deadline", default=None)
+_SKIPPED: ContextVar[list | None] = ContextVar("bounds_skipped", default=None)
+_BUDGET: ContextVar[float | None] = ContextVar("bounds_budget", default=None)
+
+
+def _out_of_time() -> bool:
+    d = _DEADLINE.get()
+    return d is not None and _time.monotonic() > d
+
+
+def _not_tried(what: str) -> str:
+    """The reason for a method skipped for its cost, recorded for the report."""
+    why = f"not tried: {what} (time budget of {_BUDGET.get():g} s used up)"
+    skipped = _SKIPPED.get()
+    if skipped is not None and why not in skipped:
+        skipped.append(why)
+    return why
+
+
+def check_budget(budget: object, what: str = "budget") -> float | None:
+    """``budget`` as seconds (a positive finite number) or None; InputError otherwise."""
+    import math
+
+    from plait.errors import InputError
+
+    if budget is None:
+        return None
+    if isinstance(budget, bool) or not isinstance(budget, (int, float)) or \
+            not math.isfinite(budget) or budget <= 0:
+        raise InputError(f"{what}: expected a positive, finite number of seconds, got "
+                         f"{budget!r}")
+    return float(budget)
 
 
 def _summarize(names: list[str]) -> str:
@@ -240,7 +366,7 @@ def _unknot_distinguished(plat: PlatWord) -> str | None:
 
 
 @lru_cache(maxsize=4096)
-def bridge_lower_bound(plat: PlatWord) -> LowerBound:
+def bridge_lower_bound(plat: PlatWord, budget: float | None = None) -> LowerBound:
     """A lower bound on the bridge number of the plat closure, with its reasons.
 
     Bounds, cheapest first (each reason names the theorem and the computed quantity):
@@ -252,6 +378,9 @@ def bridge_lower_bound(plat: PlatWord) -> LowerBound:
       the unknot's is knotted, so ``b >= 2``;
     * Fox colorings: the space of Fox ``p``-colorings has dimension at most ``b``
       (a coloring is determined by the colors of the bridges);
+    * the double branched cover: ``H_1`` needs at most ``b - 1`` generators (a genus
+      ``b - 1`` Heegaard splitting), read from the Smith normal form of the coloring
+      matrix with no factoring;
     * Nakanishi index: ``b >= m + 1``;
     * not 2-bridge (Schubert 1956 classification, :func:`not_two_bridge`): ``b >= 3``;
     * meridional rank: a homomorphism onto a group that two conjugates of the meridian's
@@ -262,6 +391,12 @@ def bridge_lower_bound(plat: PlatWord) -> LowerBound:
     Parameters
     ----------
     plat : PlatWord
+    budget : float, optional
+        Seconds for the whole bound. The cheap bounds (components, knottedness, Fox
+        colorings, the double branched cover, the listing-free not-2-bridge tests) are
+        always computed; a slow method (Alexander module, candidate listing,
+        homomorphism searches) is started only while time is left, and one that is not
+        appears in ``reasons`` as ``"not tried: … (time budget of … s used up)"``.
 
     Returns
     -------
@@ -276,8 +411,28 @@ def bridge_lower_bound(plat: PlatWord) -> LowerBound:
        (1981): the Alexander module needs at most ``b - 1`` generators.
     .. [5] M. Boileau and H. Zieschang, Comment. Math. Helv. 60 (1985).
     .. [6] S. Baader, R. Blair and A. Kjuchukova, Math. Ann. 379 (2021).
+    .. [7] M. Boileau and J.-P. Otal, "Groupe des difféotopies de certaines variétés de
+       Seifert", C. R. Acad. Sci. Paris 303 (1986) (from memory): the double branched cover
+       of a ``b``-bridge link has a genus ``b - 1`` Heegaard splitting.
     """
+    budget = check_budget(budget)
+    tokens = (_DEADLINE.set(None if budget is None else _time.monotonic() + budget),
+              _SKIPPED.set([]), _BUDGET.set(budget))
+    try:
+        lb = _bridge_lower_bound(plat)
+        skipped = _SKIPPED.get()
+        if skipped and not lb.exact:
+            lb = LowerBound(lb.value, lb.reasons + tuple(skipped), lb.method, lb.exact)
+        return lb
+    finally:
+        _BUDGET.reset(tokens[2])
+        _SKIPPED.reset(tokens[1])
+        _DEADLINE.reset(tokens[0])
+
+
+def _bridge_lower_bound(plat: PlatWord) -> LowerBound:
     from plait.scoring.alexander import fox_coloring_dimension, nakanishi_lower_bound
+    from plait.scoring.goeritz import double_cover_homology
 
     found: list[tuple[int, str, str]] = []  # (bound, method, reason)
     comps = plat.components
@@ -311,11 +466,22 @@ def bridge_lower_bound(plat: PlatWord) -> LowerBound:
         d, p = best_fox
         found.append((d, "fox", f"Fox {p}-colorings have dimension {d} → b ≥ {d} "
                       "(a coloring is fixed by the colors of the bridges; Fox 1962)"))
-    m, why = nakanishi_lower_bound(plat)
-    if m >= 1:
-        found.append((m + 1, "nakanishi",
-                      f"the Alexander module needs at least {m} generator{'s' * (m > 1)} "
-                      f"({why}) → b ≥ {m + 1} (Nakanishi index ≤ b − 1)"))
+    h = double_cover_homology(plat)
+    if len(h) + 1 >= 2 and (best_fox is None or len(h) + 1 > best_fox[0]):
+        found.append((len(h) + 1, "double-cover",
+                      f"H_1 of the double branched cover is {_format_homology(h)} "
+                      f"(Smith normal form of the coloring matrix), {len(h)} "
+                      f"generator{'s' * (len(h) > 1)} → b ≥ {len(h) + 1} (the double "
+                      "branched cover of a b-bridge link has a genus b − 1 Heegaard "
+                      "splitting)"))
+    if _out_of_time():
+        _not_tried("the Alexander module over F_p[t,t^-1] and Q[t,t^-1] (Nakanishi index)")
+    else:
+        m, why = nakanishi_lower_bound(plat)
+        if m >= 1:
+            found.append((m + 1, "nakanishi",
+                          f"the Alexander module needs at least {m} generator{'s' * (m > 1)} "
+                          f"({why}) → b ≥ {m + 1} (Nakanishi index ≤ b − 1)"))
     best = max(b for b, _, _ in found)
     if best < 3 and plat.bridges >= 3:
         proved, why = _not_two_bridge(plat, det)
@@ -357,6 +523,9 @@ def _rank_reason(name: str, w: int) -> str:
 def _witness(plat: PlatWord, name: str) -> int | None:
     from plait.scoring.quotients import meridional_rank_witness
 
+    if _out_of_time():
+        _not_tried(f"homomorphisms onto {name} (meridional rank)")
+        return None
     w = meridional_rank_witness(plat, name, QUOTIENT_BUDGET)
     return None if w is None else w[0]
 
