@@ -16,7 +16,8 @@ def parse_laurent(text: str, var: str = "t") -> dict[Fraction, int]:
     ``'-x-x^5'`` into ``{exponent: coefficient}`` (exponents as Fractions)."""
     s = text.replace(" ", "").replace("sqrt(" + var + ")", var + "^(1/2)")
     # 13-crossing rows write negative powers as quotients: '-4/t^7', '52/t'
-    s = re.sub(rf"(\d*)/{var}\^\(?(\d+)\)?", lambda m: f"{m.group(1) or 1}*{var}^(-{m.group(2)})", s)
+    s = re.sub(rf"(\d*)/{var}\^\(?(\d+)\)?",
+               lambda m: f"{m.group(1) or 1}*{var}^(-{m.group(2)})", s)
     s = re.sub(rf"(\d*)/{var}(?![\w^])", lambda m: f"{m.group(1) or 1}*{var}^(-1)", s)
     if not s:
         return {}
