@@ -163,7 +163,8 @@ def _not_two_bridge(plat: PlatWord, det: int) -> tuple[bool, str]:
         return False, (f"not tried: listing the 2-bridge candidates of determinant {det} "
                        f"(over the limit of {MAX_DETERMINANT} for its cost); "
                        f"{_LISTING_FREE_PASSED}")
-    classes = two_bridge_classes(det)
+    # shortest normal forms first: their invariants are the cheapest (for a budget)
+    classes = tuple(sorted(two_bridge_classes(det), key=lambda q: _cf_length(det, q)))
     classes, cut = _linking_form_cut(plat, det, classes)
     kind = "knot" if comps == 1 else "2-component link"
     if not classes:
@@ -173,7 +174,7 @@ def _not_two_bridge(plat: PlatWord, det: int) -> tuple[bool, str]:
     ours: dict[int, object] = {}
     used: dict[str, list[str]] = {}
     for done, q in enumerate(classes):
-        if done % 16 == 15 and _out_of_time():
+        if done and _out_of_time():
             return False, _not_tried(f"comparing the 2-bridge candidates of determinant "
                                      f"{det} after {done} of {len(classes)}")
         ruled = None
@@ -202,6 +203,16 @@ def _not_two_bridge(plat: PlatWord, det: int) -> tuple[bool, str]:
 
 _LISTING_FREE_PASSED = ("its Jones and Alexander polynomials alternate and H_1 of its double "
                         "branched cover is cyclic, as for a 2-bridge link")
+
+
+def _cf_length(p: int, q: int) -> int:
+    """Crossings of Schubert's normal form of ``S(p, q)``: the sum of the terms of the
+    continued fraction of ``p/q`` (Euclid's quotients)."""
+    total = 0
+    while q:
+        total += p // q
+        p, q = q, p % q
+    return total
 
 
 def _format_homology(h: tuple[int, ...]) -> str:

@@ -103,7 +103,8 @@ def symmetrize(p: dict) -> dict:
     if not p:
         return {}
     lo = min(p)
-    return {e - lo - span(p) // 2: c for e, c in sorted(p.items())}
+    shift = lo + span(p) // 2  # computed once: span is linear in the number of terms
+    return {e - shift: c for e, c in sorted(p.items())}
 
 
 def equal_up_to_unit(p: dict, q: dict) -> bool:
