@@ -442,7 +442,7 @@ def bridge_lower_bound(plat: PlatWord, budget: float | None = None) -> LowerBoun
 
 
 def _bridge_lower_bound(plat: PlatWord) -> LowerBound:
-    from plait.scoring.alexander import fox_coloring_dimension, nakanishi_lower_bound
+    from plait.scoring.alexander import fox_coloring_dimension
     from plait.scoring.goeritz import double_cover_homology
 
     found: list[tuple[int, str, str]] = []  # (bound, method, reason)
@@ -485,14 +485,11 @@ def _bridge_lower_bound(plat: PlatWord) -> LowerBound:
                       f"generator{'s' * (len(h) > 1)} → b ≥ {len(h) + 1} (the double "
                       "branched cover of a b-bridge link has a genus b − 1 Heegaard "
                       "splitting)"))
-    if _out_of_time():
-        _not_tried("the Alexander module over F_p[t,t^-1] and Q[t,t^-1] (Nakanishi index)")
-    else:
-        m, why = nakanishi_lower_bound(plat)
-        if m >= 1:
-            found.append((m + 1, "nakanishi",
-                          f"the Alexander module needs at least {m} generator{'s' * (m > 1)} "
-                          f"({why}) → b ≥ {m + 1} (Nakanishi index ≤ b − 1)"))
+    m, why = _module_bound(plat)
+    if m >= 1:
+        found.append((m + 1, "nakanishi",
+                      f"the Alexander module needs at least {m} generator{'s' * (m > 1)} "
+                      f"({why}) → b ≥ {m + 1} (Nakanishi index ≤ b − 1)"))
     best = max(b for b, _, _ in found)
     if best < 3 and plat.bridges >= 3:
         proved, why = _not_two_bridge(plat, det)
@@ -523,6 +520,40 @@ def _bridge_lower_bound(plat: PlatWord) -> LowerBound:
     # ones are implied)
     reasons = [r for i, (b, _, r) in enumerate(found) if b == best or (i == 0 and comps > 1)]
     return LowerBound(best, tuple(reasons), method, best == plat.bridges)
+
+
+def _module_bound(plat: PlatWord) -> tuple[int, str]:
+    """:func:`plait.scoring.alexander.nakanishi_lower_bound` within the time budget: the
+    rings are tried in order and those not finished in time are reported as not tried."""
+    from plait.scoring.alexander import (
+        alexander_matrix,
+        invariant_factor_count,
+        module_bound_rings,
+        nakanishi_lower_bound,
+    )
+
+    if _DEADLINE.get() is None:
+        return nakanishi_lower_bound(plat)
+    M = alexander_matrix(plat)
+    best, best_ring, missed = 0, None, []
+    for p in module_bound_rings(plat):
+        ring = "Q[t,t^-1]" if p is None else f"F_{p}[t,t^-1]"
+        if _out_of_time():
+            missed.append(ring)
+            continue
+        try:
+            k = invariant_factor_count(M, p, _DEADLINE.get()) - 1
+        except TimeoutError:
+            missed.append(ring)
+            continue
+        if k > best:
+            best, best_ring = k, ring
+    if missed:
+        _not_tried(f"the Alexander module over {', '.join(missed)} (Nakanishi index)")
+    if best == 0:
+        return 0, "no non-unit invariant factor besides the free summand"
+    return best, (f"Alexander module over {best_ring} has {best} non-unit invariant "
+                  f"factor{'s' if best != 1 else ''} besides the free summand")
 
 
 def _rank_reason(name: str, w: int) -> str:
