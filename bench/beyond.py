@@ -4,6 +4,7 @@ Usage::
 
     .venv/bin/python bench/beyond.py [--cases 6] [--time 5] [--budget 5] [--seed 0]
                                      [--families torus,sum2,...] [--table13 [--limit N]]
+                                     [--speed N] [--verbose]
 
 One row per family, each case run through the real :func:`plait.bridge.bridge_report`
 (search ``--time`` seconds, lower bounds within ``--budget`` seconds each time they are
@@ -24,7 +25,8 @@ Columns: cases; ``upper = b %`` (the report's plat has ``b`` bridges); ``certifi
 (lower = upper = ``b``); contradictions (lower > ``b`` or upper < ``b``: must be 0);
 median wall seconds per case. ``--table13`` runs the 13-crossing KnotInfo knots of bridge
 index 4 from their PD codes (``--limit`` of them; all 468 by default) and prints the same
-row.
+row. ``--speed N`` adds a table of CPU seconds of the lower bounds alone on 4-bridge plats of
+about 500 letters, without a budget and with ``--budget``.
 """
 
 from __future__ import annotations
@@ -151,6 +153,60 @@ def row(name: str, cases: Iterator[Case], args: argparse.Namespace, root: str) -
     return line
 
 
+def _clear_caches() -> None:
+    """Empty the memo caches of the invariant modules, so each timing starts cold."""
+    import importlib
+    import pkgutil
+
+    import plait.scoring as pkg
+
+    for info in pkgutil.iter_modules(pkg.__path__):
+        mod = importlib.import_module(f"plait.scoring.{info.name}")
+        for obj in vars(mod).values():
+            if callable(getattr(obj, "cache_clear", None)):
+                obj.cache_clear()
+
+
+def speed_table(n: int, budget: float, seed: int) -> None:
+    """CPU seconds of :func:`plait.scoring.bounds.bridge_lower_bound` on 4-bridge plats of
+    about 500 letters, without a budget and with ``budget`` (issue: within 5 s)."""
+    from plait.scoring.bounds import bridge_lower_bound
+    from plait.search.randomplat import random_plat
+
+    kinds = {
+        "random 4-bridge knot, 500 letters":
+            lambda r: random_plat(4, 500, r, knot=True),
+        "twisted 8-plat, 41 rows (~500 letters)":
+            lambda r: twisted_plat(4, r, rows=41),
+    }
+    head = (f"{'plats':<40} {'n':>3} {'letters':>7} {'no budget: median s':>20} "
+            f"{'max s':>6} {f'budget {budget:g} s: median s':>24} {'max s':>6} "
+            f"{'not tried':>9} {'same bound':>10}")
+    print(head)
+    print("-" * len(head))
+    for name, make in kinds.items():
+        rng = random.Random(f"{seed}:speed:{name}")
+        free, capped, lengths = [], [], []
+        skipped = same = 0
+        for _ in range(n):
+            plat = make(rng)
+            lengths.append(plat.length)
+            _clear_caches()
+            t0 = time.process_time()
+            a = bridge_lower_bound(plat)
+            free.append(time.process_time() - t0)
+            _clear_caches()
+            t0 = time.process_time()
+            b = bridge_lower_bound(plat, budget)
+            capped.append(time.process_time() - t0)
+            skipped += any(r.startswith("not tried:") for r in b.reasons)
+            same += a.value == b.value
+        print(f"{name:<40} {n:>3} {statistics.median(lengths):>7.0f} "
+              f"{statistics.median(free):>20.2f} {max(free):>6.2f} "
+              f"{statistics.median(capped):>24.2f} {max(capped):>6.2f} {skipped:>9} {same:>10}",
+              flush=True)
+
+
 def main(argv: list[str] | None = None) -> int:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--cases", type=int, default=6, help="cases per family (default 6)")
@@ -165,6 +221,9 @@ def main(argv: list[str] | None = None) -> int:
     ap.add_argument("--limit", type=int, default=None,
                     help="with --table13: only the first N of the 468 knots")
     ap.add_argument("--verbose", action="store_true", help="one line per case")
+    ap.add_argument("--speed", type=int, default=0, metavar="N",
+                    help="also time the lower bounds alone on N 4-bridge plats of about 500 "
+                         "letters of each kind (CPU s, without and with --budget)")
     args = ap.parse_args(argv)
     fams = [f for f in args.families.split(",") if f]
     bad = [f for f in fams if f not in GENERATORS]
@@ -184,6 +243,9 @@ def main(argv: list[str] | None = None) -> int:
             print(row(f, GENERATORS[f](rng, args.cases), args, root), flush=True)
         if args.table13:
             print(row("table13", table13_cases(args.limit), args, root), flush=True)
+    if args.speed:
+        print()
+        speed_table(args.speed, args.budget, args.seed)
     return 0
 
 

@@ -407,7 +407,7 @@ def invariant_factor_count(M: list[list[dict]], p: int | None,
     Raises
     ------
     TimeoutError
-        When ``deadline`` (a :func:`time.monotonic` value) passes during the elimination.
+        When ``deadline`` (a :func:`time.thread_time` value) passes during the elimination.
     """
     import time
 
@@ -423,7 +423,7 @@ def invariant_factor_count(M: list[list[dict]], p: int | None,
         for row in A:
             row[0], row[j0] = row[j0], row[0]
         while True:
-            if deadline is not None and time.monotonic() > deadline:
+            if deadline is not None and time.thread_time() > deadline:
                 raise TimeoutError("invariant factors: time budget used up")
             piv = A[0][0]
             changed = False

@@ -287,9 +287,15 @@ _SKIPPED: ContextVar[list | None] = ContextVar("bounds_skipped", default=None)
 _BUDGET: ContextVar[float | None] = ContextVar("bounds_budget", default=None)
 
 
+def _clock() -> float:
+    """CPU seconds of this thread: the budget counts the bound's own work, whatever else
+    runs on the machine."""
+    return _time.thread_time()
+
+
 def _out_of_time() -> bool:
     d = _DEADLINE.get()
-    return d is not None and _time.monotonic() > d
+    return d is not None and _clock() > d
 
 
 def _not_tried(what: str) -> str:
@@ -403,7 +409,8 @@ def bridge_lower_bound(plat: PlatWord, budget: float | None = None) -> LowerBoun
     ----------
     plat : PlatWord
     budget : float, optional
-        Seconds for the whole bound. The cheap bounds (components, knottedness, Fox
+        CPU seconds of the calling thread for the whole bound (not wall time, so a loaded
+        machine does not change what is tried). The cheap bounds (components, knottedness, Fox
         colorings, the double branched cover, the listing-free not-2-bridge tests) are
         always computed; a slow method (Alexander module, candidate listing,
         homomorphism searches) is started only while time is left, and one that is not
@@ -427,7 +434,7 @@ def bridge_lower_bound(plat: PlatWord, budget: float | None = None) -> LowerBoun
        of a ``b``-bridge link has a genus ``b - 1`` Heegaard splitting.
     """
     budget = check_budget(budget)
-    tokens = (_DEADLINE.set(None if budget is None else _time.monotonic() + budget),
+    tokens = (_DEADLINE.set(None if budget is None else _clock() + budget),
               _SKIPPED.set([]), _BUDGET.set(budget))
     try:
         lb = _bridge_lower_bound(plat)
