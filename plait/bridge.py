@@ -116,6 +116,9 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
         the start of the search (so that it stops once certified) and again on the best
         plat found (fewest bridges, then shortest), cached by the knot's fingerprint
         within the run: a knot's bounds are recomputed only on a strictly simpler plat.
+        With a budget, the diagram of an input or best plat with more than
+        :data:`DIAGRAM_CROSSINGS_PER_SECOND` crossings per budget second is not converted
+        (an upper reason says so).
 
     Returns
     -------
@@ -143,10 +146,14 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
         upper_reasons.append(f"the input as a plat has {start.bridges} bridges")
         pd = _pd_or_none(start)
         if pd is not None and pd.length:
-            p2, w2, why = _diagram_bound(pd, wirtinger_time, "the input plat's diagram")
-            if p2.bridges < start.bridges:
-                start, wirt = p2, w2
-                upper_reasons.append(why)
+            what = "the input plat's diagram"
+            if _diagram_affordable(pd, budget):
+                p2, w2, why = _diagram_bound(pd, wirtinger_time, what)
+                if p2.bridges < start.bridges:
+                    start, wirt = p2, w2
+                    upper_reasons.append(why)
+            else:
+                upper_reasons.append(_diagram_not_tried(pd, budget, what))
     kw = {} if runs_root is None else {"runs_root": runs_root}
     res = reduce(start, time=time, steps=steps, seed=seed, run_dir=run_dir, quiet=quiet,
                  objective="bridges", handle_signals=handle_signals, bounds_budget=budget,
@@ -168,15 +175,35 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
                              f"(certificate {res.certificate})")
     # the best plat's own diagram may need fewer bridges still
     pd = _pd_or_none(best)
-    if pd is not None and pd.length and best.bridges > max(res.lower, 1):
-        p3, _w3, why = _diagram_bound(pd, wirtinger_time, "the best plat's diagram")
-        if p3.bridges < best.bridges:
-            best = p3
-            upper_reasons.append(why + " (beyond the certificate, guarded by Jones)")
+    if pd is not None and pd.length and best.bridges > max(lower, 1):
+        what = "the best plat's diagram"
+        if _diagram_affordable(pd, budget):
+            p3, _w3, why = _diagram_bound(pd, wirtinger_time, what)
+            if p3.bridges < best.bridges:
+                best = p3
+                upper_reasons.append(why + " (beyond the certificate, guarded by Jones)")
+        else:
+            upper_reasons.append(_diagram_not_tried(pd, budget, what))
     upper = best.bridges
     if lower > upper:  # pragma: no cover - would be a contradiction between theorems
         raise AssertionError(f"lower bound {lower} exceeds upper bound {upper}")
     return BridgeReport(lower, upper, lower_reasons, upper_reasons, best, wirt, search)
+
+
+#: With a budget, a plat's diagram is converted (Wirtinger number, height function and
+#: sweep, Jones check: superlinear in the crossings) only up to this many crossings per
+#: budget second. An input PD code is always converted: it is the only route to a plat.
+DIAGRAM_CROSSINGS_PER_SECOND = 30
+
+
+def _diagram_affordable(pd: PDCode, budget: float | None) -> bool:
+    return budget is None or pd.length <= DIAGRAM_CROSSINGS_PER_SECOND * budget
+
+
+def _diagram_not_tried(pd: PDCode, budget: float | None, what: str) -> str:
+    return (f"not tried: the Wirtinger number of {what} ({pd.length} crossings; with a "
+            f"budget of {budget:g} s only diagrams of up to "
+            f"{int(DIAGRAM_CROSSINGS_PER_SECOND * budget)} crossings are converted)")
 
 
 def _has_not_tried(reasons: list[str] | tuple[str, ...]) -> bool:
