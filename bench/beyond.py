@@ -15,7 +15,7 @@ computed). The cases are drawn from ``--seed``:
 * ``sum2``, ``sum3``: connected sums of two or three KnotInfo knots (3 to 9 crossings,
   known bridge index) as one closed braid; ``b = b_1 + ... + b_k - (k - 1)``
   (Schubert 1954). Source of the factors: KnotInfo via database-knotinfo.
-* ``2bridge``: Schubert's 4-plat of ``S(p, q)`` for a random odd ``p`` of 3 to 5 digits,
+* ``2bridge``: Schubert's 4-plat of ``S(p, q)`` for a random odd ``p`` from 1001 to 19999,
   scrambled by random moves (stabilizations included); ``b = 2`` (Schubert 1956).
 * ``twisted3``, ``twisted4``, ``twisted5``: highly twisted ``2m``-plats (every twist
   region ``|exponent| >= 3``, ``4m(m-2) + 1`` rows); ``b = m`` (Johnson–Moriah, Algebr.
@@ -87,7 +87,7 @@ def sum_cases(k: int) -> Callable[[random.Random, int], Iterator[Case]]:
 
 def two_bridge_cases(rng: random.Random, n: int) -> Iterator[Case]:
     for _ in range(n):
-        p = rng.randrange(101, 100_000, 2)
+        p = rng.randrange(1001, 20_000, 2)
         q = rng.randrange(1, p)
         while gcd(p, q) != 1:
             q = rng.randrange(1, p)

@@ -141,8 +141,23 @@ def _describe(p: int, q: int) -> str:
     return f"S({p},{q})"
 
 
-@lru_cache(maxsize=4096)
+# (plat, det) -> (proved, reason); results cut short by a time budget are not kept
+_NOT_TWO_BRIDGE_CACHE: dict[tuple[PlatWord, int], tuple[bool, str]] = {}
+
+
 def _not_two_bridge(plat: PlatWord, det: int) -> tuple[bool, str]:
+    key = (plat, det)
+    if key in _NOT_TWO_BRIDGE_CACHE:
+        return _NOT_TWO_BRIDGE_CACHE[key]
+    out = _not_two_bridge_uncached(plat, det)
+    if not (_DEADLINE.get() is not None and "time budget" in out[1]):
+        if len(_NOT_TWO_BRIDGE_CACHE) >= 4096:
+            _NOT_TWO_BRIDGE_CACHE.clear()
+        _NOT_TWO_BRIDGE_CACHE[key] = out
+    return out
+
+
+def _not_two_bridge_uncached(plat: PlatWord, det: int) -> tuple[bool, str]:
     from plait.scoring.twobridge import MAX_DETERMINANT, two_bridge_classes
 
     comps = plat.components
