@@ -8,6 +8,8 @@ from functools import cache
 from math import gcd, prod
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 from kidata import knots, parse_laurent
 
 from plait.errors import InputError
@@ -143,6 +145,23 @@ def test_linking_form_of_lens_spaces():
         for q in two_bridge_classes(p):
             assert linking_form_class(two_bridge_plat(p, q), p, primes) == \
                 square_class(q, p, primes)
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.integers(3, 500), st.integers(1, 500))
+def test_two_bridge_law(p, q):
+    # Schubert 1956: S(p,q) has double branched cover L(p,q), H_1 = Z/p, linking form q/p
+    # (Seifert 1933), and is non-split alternating: no listing-free test may fire
+    q = q % p
+    if gcd(p, q) != 1 or q == 0:
+        return
+    plat = two_bridge_plat(p, q)
+    assert double_cover_homology(plat) == (p,)
+    if p % 2 and plat.length <= 120:
+        primes = odd_prime_divisors(p)
+        assert linking_form_class(plat, p, primes) == square_class(q, p, primes)
+    if plat.length <= 60:
+        assert _listing_free_obstruction(plat, p) is None
 
 
 # -- families, small instances against their theorems ------------------------------------
