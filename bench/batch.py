@@ -19,7 +19,8 @@ import tempfile
 import time
 from pathlib import Path
 
-from plait.search.batch import read_rows, run_batch, strip_volatile
+from plait.search.batch import run_batch
+from plait.search.batch_files import read_rows, strip_volatile
 from plait.search.randomplat import parse_range, random_plats
 
 

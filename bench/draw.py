@@ -5,7 +5,7 @@ from __future__ import annotations
 import random
 import time
 
-from plait.draw import plat_svg
+from plait.pictures.draw import plat_svg
 from plait.word import PlatWord
 
 

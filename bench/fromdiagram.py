@@ -6,7 +6,7 @@ Usage::
                                           [--every 1] [--time-limit 10] [--vogel]
 
 For every KnotInfo knot in the crossing range (every ``--every``-th one), converts the
-table's ``pd_notation`` with :func:`plait.fromdiagram.diagram_to_plat` and prints one table
+table's ``pd_notation`` with :func:`plait.diagrams.fromdiagram.diagram_to_plat` and prints one table
 per crossing number: knots, bridges equal to KnotInfo's ``bridge_index`` (%), Wirtinger
 number proven minimal (%), Jones polynomial equal to KnotInfo's (%), median and largest
 plat length / crossing number, median and 95th-percentile seconds per knot (CPU time of
@@ -27,9 +27,9 @@ sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "tests"))
 
 from kidata import knots  # noqa: E402
 
-from plait.fromdiagram import diagram_to_plat  # noqa: E402
-from plait.pd import validate_pd  # noqa: E402
-from plait.pdjones import plat_jones  # noqa: E402
+from plait.diagrams.fromdiagram import diagram_to_plat  # noqa: E402
+from plait.diagrams.pd import validate_pd  # noqa: E402
+from plait.diagrams.pdjones import plat_jones  # noqa: E402
 
 
 def _p95(xs: list[float]) -> float:
@@ -85,7 +85,7 @@ def main(argv: list[str] | None = None) -> int:
     ap.add_argument("--vogel", action="store_true", help="also run the Vogel route")
     args = ap.parse_args(argv)
     rows = knots(args.max_crossings, args.min_crossings)[:: args.every]
-    table("Wirtinger route (plait.fromdiagram.diagram_to_plat, method='auto')",
+    table("Wirtinger route (plait.diagrams.fromdiagram.diagram_to_plat, method='auto')",
           run(rows, "auto", args.time_limit))
     if args.vogel:
         print()

@@ -30,7 +30,7 @@ sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "tests"))
 from kidata import knots  # noqa: E402
 
 from plait.bridge import bridge_report  # noqa: E402
-from plait.pd import validate_pd  # noqa: E402
+from plait.diagrams.pd import validate_pd  # noqa: E402
 
 
 def _p95(xs: list[float]) -> float:

@@ -167,8 +167,8 @@ def certificate_from_obj(obj: object) -> Certificate:
 def _check_input(cert: Certificate) -> str:
     # the start plat must be the given presentation (plat or closed braid), or at least
     # have as many components as a given PD code
+    from plait.diagrams.pd import PDCode, pd_components
     from plait.formats import presentation_from_obj
-    from plait.pd import PDCode, pd_components
     from plait.word import ClosedBraid
 
     pres = presentation_from_obj(cert.input)
@@ -185,8 +185,8 @@ def _check_input(cert: Certificate) -> str:
         # the diagram -> plat step is not a sequence of moves; it is checked the way the
         # conversion itself is guarded: same Jones polynomial as the PD code (for links,
         # under some orientation of its components)
+        from plait.diagrams.fromdiagram import check_plat
         from plait.errors import GuardViolation
-        from plait.fromdiagram import check_plat
 
         try:
             check_plat(pres, cert.start)

@@ -11,6 +11,7 @@ Parsing: :func:`parse_word`, :func:`parse_pd`, :func:`parse_presentation`,
 """
 
 from plait.convert import to_plat
+from plait.diagrams.pd import PDCode, plat_to_pd, validate_pd
 from plait.errors import GuardViolation, InputError, PlaitError
 from plait.formats import (
     parse_pd,
@@ -20,7 +21,6 @@ from plait.formats import (
     presentation_to_obj,
     read_presentation_file,
 )
-from plait.pd import PDCode, plat_to_pd, validate_pd
 from plait.word import ClosedBraid, PlatWord
 
 __version__ = "0.1.0"

@@ -4,11 +4,11 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
+from plait.diagrams.fromdiagram import diagram_to_plat
+from plait.diagrams.pd import PDCode, plat_to_pd, validate_pd
+from plait.diagrams.wirtinger import Wirtinger
 from plait.errors import InputError
 from plait.formats import Presentation
-from plait.fromdiagram import diagram_to_plat
-from plait.pd import PDCode, plat_to_pd, validate_pd
-from plait.wirtinger import Wirtinger
 from plait.word import PlatWord
 
 __all__ = ["BridgeReport", "bridge_report"]

@@ -2,9 +2,9 @@
 
 from __future__ import annotations
 
+from plait.diagrams.pd import PDCode
 from plait.errors import InputError
 from plait.formats import Presentation
-from plait.pd import PDCode
 from plait.word import ClosedBraid, PlatWord
 
 __all__ = ["to_plat"]
@@ -15,14 +15,14 @@ def to_plat(p: Presentation, **options) -> PlatWord:
 
     A plat is returned as is; a closed braid goes through
     :meth:`ClosedBraid.to_plat`; a PD code goes through
-    :func:`plait.fromdiagram.pd_to_plat` (keyword ``options`` are passed on).
+    :func:`plait.diagrams.fromdiagram.pd_to_plat` (keyword ``options`` are passed on).
     """
     if isinstance(p, PlatWord):
         return p
     if isinstance(p, ClosedBraid):
         return p.to_plat()
     if isinstance(p, PDCode):
-        from plait.fromdiagram import pd_to_plat
+        from plait.diagrams.fromdiagram import pd_to_plat
 
         return pd_to_plat(p, **options)
     raise InputError(f"not a presentation: {type(p).__name__}")

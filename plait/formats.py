@@ -10,8 +10,8 @@ from contextlib import contextmanager
 from dataclasses import dataclass
 from typing import Union
 
+from plait.diagrams.pd import PDCode, validate_pd
 from plait.errors import InputError
-from plait.pd import PDCode, validate_pd
 from plait.word import MAX_LENGTH, ClosedBraid, PlatWord
 
 __all__ = [

@@ -243,8 +243,15 @@ class ClosedBraid:
 
     @classmethod
     def from_word(cls, word: Iterable[int], strands: int | None = None) -> ClosedBraid:
-        """Closed braid with the given letters; default strands is ``max |g| + 1``."""
+        """Closed braid with the given letters; default strands is ``max |g| + 1``.
+
+        An empty word names no strand count, so it needs ``strands``: the trivial
+        ``strands``-braid, whose closure is the ``strands``-component unlink.
+        """
         w = tuple(word)
+        if not w and strands is None:
+            raise InputError("braid: an empty word needs a strand count (--strands N gives "
+                             "the trivial N-braid, whose closure is the N-component unlink)")
         return cls(min_strands(w, even=False) if strands is None else strands, w)
 
     @property

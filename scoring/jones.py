@@ -471,8 +471,9 @@ def bracket_state_sum_pd(crossings: Sequence[Sequence[int]]) -> dict[int, int]:
 
 def pd_writhe(crossings: Sequence[Sequence[int]]) -> int:
     """Writhe of a PD code: a crossing ``(a, b, c, d)`` is positive when its over-strand
-    runs from ``d`` to ``b``. The orientation comes from :func:`plait.pd.pd_orientation`."""
-    from plait.pd import PDCode, pd_orientation
+    runs from ``d`` to ``b``. The orientation comes from
+    :func:`plait.diagrams.pd.pd_orientation`."""
+    from plait.diagrams.pd import PDCode, pd_orientation
 
     pd = PDCode(tuple(tuple(c) for c in crossings))
     orient = pd_orientation(pd)

@@ -5,7 +5,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from functools import lru_cache
 
-from plait.pd import trace_plat
+from plait.diagrams.pd import trace_plat
 from plait.word import PlatWord
 
 __all__ = [
@@ -31,7 +31,7 @@ class PlatTrace:
     under_direction : tuple of int
         The same for the under-strand.
     over_component, under_component : tuple of int
-        Component index (0-based, numbered by first cap as in :func:`plait.pd.trace_plat`)
+        Component index (0-based, numbered by first cap as in :func:`plait.diagrams.pd.trace_plat`)
         of the over- and under-strand of letter ``j``.
     signs : tuple of int
         Sign of each crossing (``+1`` positive, ``-1`` negative).
@@ -53,7 +53,7 @@ class PlatTrace:
 def trace(plat: PlatWord) -> PlatTrace:
     """Orient every strand of the plat closure and sign every crossing.
 
-    The orientation is plait's convention (:func:`plait.pd.trace_plat`): each component
+    The orientation is plait's convention (:func:`plait.diagrams.pd.trace_plat`): each component
     starts at the left end of its first cap, going down.
 
     Parameters

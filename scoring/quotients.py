@@ -7,7 +7,7 @@ from dataclasses import dataclass, field
 from functools import cache, lru_cache
 from itertools import permutations, product
 
-from plait.pd import trace_plat
+from plait.diagrams.pd import trace_plat
 from plait.word import PlatWord
 
 __all__ = [
@@ -280,7 +280,7 @@ class Arcs:
 
 
 def plat_arcs(plat: PlatWord) -> Arcs:
-    """The :class:`Arcs` of the plat diagram, oriented as in :func:`plait.pd.trace_plat`.
+    """The :class:`Arcs` of the plat diagram, oriented as in :func:`plait.diagrams.pd.trace_plat`.
 
     The twist of letter ``j`` is ``sign(letter) * d`` with ``d = +1`` when the over strand
     runs down the word: for sigma_k with the over strand running down, the under strand

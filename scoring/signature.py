@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Sequence
 from fractions import Fraction
 
-from plait.pd import trace_plat
+from plait.diagrams.pd import trace_plat
 from plait.word import PlatWord
 
 __all__ = ["signature", "goeritz_matrix", "symmetric_inertia", "plat_regions"]
@@ -176,7 +176,7 @@ def symmetric_inertia(matrix: Sequence[Sequence[int]]) -> tuple[int, int, int]:
 
 def signature(plat: PlatWord) -> int:
     """Signature of the oriented link closing the plat (orientation of
-    :func:`plait.pd.trace_plat`), in KnotInfo's convention: the right-handed trefoil,
+    :func:`plait.diagrams.pd.trace_plat`), in KnotInfo's convention: the right-handed trefoil,
     closure of the braid ``1 1 1``, has signature ``-2``.
 
     Computed as ``sign(G) - mu`` where ``G`` is the Goeritz matrix of the checkerboard

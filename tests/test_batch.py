@@ -17,19 +17,16 @@ from plait.atomic import write_json_atomic
 from plait.cli import main
 from plait.errors import InputError
 from plait.formats import presentation_from_obj
-from plait.search.batch import (
-    ItemTask,
+from plait.search.batch import run_batch
+from plait.search.batch_files import (
     format_summary,
-    item_seed,
-    merge_batches,
-    parse_shard,
     read_rows,
     rows_to_csv,
-    run_batch,
-    shard_of,
     strip_volatile,
     summarize,
 )
+from plait.search.batch_pool import ItemTask
+from plait.search.batch_shards import item_seed, merge_batches, parse_shard, shard_of
 from plait.search.randomplat import random_plats
 
 TESTS = Path(__file__).resolve().parent
@@ -129,7 +126,7 @@ def by_id(rows: list[dict]) -> dict[str, dict]:
 # -- stable assignment ------------------------------------------------------------------
 def test_seeds_and_shards_are_stable_across_interpreters():
     # common practice: derived values must not depend on PYTHONHASHSEED
-    code = ("from plait.search.batch import item_seed, shard_of;"
+    code = ("from plait.search.batch_shards import item_seed, shard_of;"
             "print(item_seed(3, 'k-1'), shard_of('k-1', 7))")
     outs = set()
     for hs in ("1", "2"):
@@ -268,13 +265,13 @@ def test_a_worker_that_dies_costs_only_its_own_item(tmp_path):
 
 
 def test_one_writer_per_folder(tmp_path):
-    from plait.search.batch import _batch_lock
+    from plait.search.batch_files import batch_lock
 
     src = tmp_path / "in.jsonl"
     write_input(src, 2)
     out = tmp_path / "out"
     out.mkdir()
-    with _batch_lock(out):
+    with batch_lock(out):
         with pytest.raises(InputError, match="another plait batch"):
             run_batch(src, out, steps=5, quiet=True, item_fn=toy_item)
 

@@ -13,7 +13,8 @@ from pathlib import Path
 import pytest
 
 from plait.cli import main
-from plait.search.batch import read_rows, run_batch, strip_volatile
+from plait.search.batch import run_batch
+from plait.search.batch_files import read_rows, strip_volatile
 from plait.search.randomplat import random_plats
 
 STEPS = "60"

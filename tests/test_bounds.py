@@ -396,7 +396,7 @@ def _count_by_caps(plat: PlatWord, name: str) -> int:
     # and keep those whose two ends agree at every cup (Fox 1962).
     from itertools import product
 
-    from plait.pd import trace_plat
+    from plait.diagrams.pd import trace_plat
 
     t = target(name)
     word = plat.word

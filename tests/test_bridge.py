@@ -8,8 +8,8 @@ from kidata import knot, knots
 
 from plait.bridge import bridge_report
 from plait.cli import main
-from plait.pd import validate_pd
-from plait.pdjones import plat_jones
+from plait.diagrams.pd import validate_pd
+from plait.diagrams.pdjones import plat_jones
 from plait.word import ClosedBraid
 
 

@@ -63,6 +63,9 @@ MALFORMED = [
     (["show", "--plat", "1", "--strands", "0"], "even"),
     (["show", "--braid", "3", "--strands", "3"], "out of range for 3 strands"),
     (["show", "--braid", "1", "--strands", "0"], "at least 1"),
+    # an empty braid word names no strand count  # common practice
+    (["show", "--braid", ""], "empty word"),
+    (["show", "--braid", "[ ]"], "--strands"),
     (["show", "--plat", "1", "--strands", "1000"], "limit"),
     (["show", "--pd", "[[1,5,2,4],[3,1,4,6],[5,3,6]]"], "3 labels"),
     (["show", "--pd", "[[1,5,2,4],[3,1,4,6],[5,3,6,7]]"], "label 2"),
@@ -97,6 +100,7 @@ BAD_FILES = [
     ("strs.json", '{"plat": [1, "a"]}', "letter 2"),
     ("fmt.json", '{"format": "other/9", "plat": [1]}', "unknown format"),
     ("text.txt", "hello world", "expected"),
+    ("emptybraid.json", '{"braid": []}', "empty word"),
     ("pdstrands.json", '{"pd": [[1,5,2,4],[3,1,4,6],[5,3,6,2]], "strands": 4}', "strands"),
 ]
 
@@ -127,3 +131,26 @@ def test_console_script_no_traceback(argv):
     assert proc.returncode == 2
     assert "Traceback" not in proc.stderr
     assert len(proc.stderr.strip().splitlines()) == 1
+
+
+@pytest.mark.parametrize("n", [1, 2, 3, 5])
+def test_trivial_braid_is_the_unlink(n, capsys):
+    # the closure of the trivial n-braid is the n-component unlink, and its plat has n
+    # bridges and no crossings  # common practice
+    code, out, _ = run(["show", "--braid", "", "--strands", str(n), "--json", "--pd-out"],
+                       capsys)
+    assert code == 0
+    obj = json.loads(out)
+    assert (obj["strands"], obj["bridges"], obj["length"], obj["components"]) == (2 * n, n, 0, n)
+    # the crossingless unknot has the empty PD code; an unlink has none  # common practice
+    assert obj["pd"] == ([] if n == 1 else None)
+    code, out, _ = run(["show", "--braid", "[]", "--strands", str(n)], capsys)
+    assert code == 0 and f"{n} component" in out and "0 crossings" in out
+
+
+def test_trivial_braid_from_a_file(tmp_path, capsys):
+    # {"braid": [], "strands": 3}: the 3-component unlink  # common practice
+    f = tmp_path / "unlink.json"
+    f.write_text(json.dumps({"braid": [], "strands": 3}))
+    code, out, _ = run(["show", str(f), "--json"], capsys)
+    assert code == 0 and json.loads(out)["components"] == 3

@@ -10,16 +10,12 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from plait.batchplot import batch_summary_svg, read_results
 from plait.cli import main
-from plait.draw import (
-    bezier_point,
-    draw_compare,
-    plat_svg,
-    read_run_folder,
-    split_bezier,
-)
-from plait.pd import plat_to_pd, trace_plat
+from plait.diagrams.pd import plat_to_pd, trace_plat
+from plait.pictures.batch import batch_summary_svg, read_results
+from plait.pictures.draw import draw_compare, plat_svg
+from plait.pictures.geometry import bezier_point, split_bezier
+from plait.pictures.runfolder import read_run_folder
 from plait.word import ClosedBraid, PlatWord
 
 NS = "{http://www.w3.org/2000/svg}"
@@ -180,7 +176,7 @@ def check_connectivity(panel: ET.Element, plat: PlatWord) -> None:
 
 
 def check_trace(panel: ET.Element, plat: PlatWord) -> None:
-    """Colours agree with plait.pd.trace_plat: every strand through letter j that the
+    """Colours agree with plait.diagrams.pd.trace_plat: every strand through letter j that the
     trace puts in one component is drawn in that component's single colour."""
     groups = [g for g in panel.iter(NS + "g") if g.get("class") == "crossing"]
     color_of: dict[int, set[str]] = {}
@@ -196,7 +192,7 @@ def check_trace(panel: ET.Element, plat: PlatWord) -> None:
 
 def check_against_pd(panel: ET.Element, plat: PlatWord) -> None:
     """The broken strand of every letter is the under-strand of that crossing in the PD
-    code plait exports (plait.pd.plat_to_pd, whose Jones polynomials match KnotInfo's)."""
+    code plait exports (plait.diagrams.pd.plat_to_pd, whose Jones polynomials match KnotInfo's)."""
     if not plat.word:
         return  # no crossing to compare (and an unlink has no PD code)
     pd = plat_to_pd(plat)
@@ -322,6 +318,38 @@ def test_compact_rows_share_only_far_consecutive_letters():
             over = next(e for e in g if e.get("class") == "over")
             rows.setdefault(endpoints(over.get("d"))[0][1], []).append(int(g.get("data-letter")))
     assert [rows[y] for y in sorted(rows)] == [[1, 2, 3], [4, 5], [6, 7, 8]]
+
+
+@pytest.mark.parametrize("word,strands", [
+    ("1", 2), ("1 1 -1 1 1", 2), ("1 -2 3", 4), ("1 -2 3 -4 5 -6 7 -8 9 -10 11", 12),
+])
+def test_canvas_follows_the_drawing(word, strands):
+    # A one-column plat used to sit left of a wide empty area: the canvas followed the
+    # title. Now the title wraps to the strands' width, each line either fitting it or
+    # holding one piece of the "bridges · crossings · components" list, and the canvas is
+    # the strands plus gutter and margin unless such a piece is wider.  # common practice
+    char = 0.62 * 13  # the drawing's generous estimate of a bold 13 px character's width
+    plat = PlatWord.from_word([int(t) for t in word.split()], strands)
+    svg = plat_svg(plat)
+    width = float(ET.fromstring(svg).get("width"))
+    (panel,) = panels(svg)
+    px = offset(panel)[0]
+    right = max(px + offset(col)[0] + x
+                for col in panel if col.get("class") == "column"
+                for el in col.iter() if el.get("class") in STRAND_CLASSES
+                for _op, pts in parse_d(el.get("d")) for x, _y in pts)
+    strands_w = right - px + 10.0  # the column, from the panel's left edge to the gutter
+    titles = [t.text for t in panel.iter(NS + "text") if t.get("class") == "title"]
+    b, n, c = plat.bridges, plat.length, plat.components
+    summary = (f"{b} bridge{'s' * (b != 1)} \u00b7 {n} crossing{'s' * (n != 1)} \u00b7 "
+               f"{c} component{'s' * (c != 1)}")
+    assert " ".join(titles) == summary
+    for line in titles:
+        assert char * len(line) <= strands_w + 0.01 or "\u00b7" not in line.rstrip(" \u00b7")
+    assert right + 10.0 + 18.0 - 0.01 <= width
+    assert width <= max(right + 10.0 + 18.0, 2 * 18.0 + char * max(map(len, titles))) + 0.01
+    if strands >= 12:  # wider than every piece of the title: exactly the strands' width
+        assert width == pytest.approx(right + 10.0 + 18.0)
 
 
 def test_before_after_two_panels():
@@ -530,7 +558,7 @@ def test_batch_summary_accounts_for_every_row(rows):
 
 
 def batch_summary_svg_text(rows):
-    from plait.batchplot import batch_summary
+    from plait.pictures.batch import batch_summary
 
     return batch_summary(rows).to_svg()
 

@@ -13,18 +13,18 @@ from hypothesis import strategies as st
 from kidata import knot, knots, parse_laurent
 
 from plait.cli import main
-from plait.errors import GuardViolation, InputError
-from plait.fromdiagram import check_plat, diagram_to_plat, pd_to_plat, tidy
-from plait.heights import DIRECTIONS, Degenerate, lift, sweep_plat
-from plait.pd import PDCode, plat_to_pd, validate_pd
-from plait.pdjones import (
+from plait.diagrams.fromdiagram import check_plat, diagram_to_plat, pd_to_plat, tidy
+from plait.diagrams.heights import DIRECTIONS, Degenerate, lift, sweep_plat
+from plait.diagrams.pd import PDCode, plat_to_pd, validate_pd
+from plait.diagrams.pdjones import (
     pd_jones,
     pd_jones_all_orientations,
     plat_jones,
     plat_jones_all_orientations,
 )
-from plait.vogel import pd_to_closed_braid, seifert_circles
-from plait.wirtinger import occurrence_roles, wirtinger
+from plait.diagrams.vogel import pd_to_closed_braid, seifert_circles
+from plait.diagrams.wirtinger import occurrence_roles, wirtinger
+from plait.errors import GuardViolation, InputError
 from plait.word import ClosedBraid, PlatWord
 
 

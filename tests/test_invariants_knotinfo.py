@@ -7,7 +7,7 @@ from fractions import Fraction
 import pytest
 from kidata import knots
 
-from plait.pd import plat_to_pd, validate_pd
+from plait.diagrams.pd import plat_to_pd, validate_pd
 from plait.scoring import (
     alexander,
     determinant,
@@ -41,7 +41,7 @@ def wirtinger_matrix(crossings) -> list[list[dict]]:
     is ``c = t a + (1 - t) b``, otherwise ``a = t c + (1 - t) b`` (Alexander quandle).
     # source: R. H. Fox, "Free differential calculus II", Ann. of Math. 59 (1954)
     """
-    from plait.pd import PDCode, pd_orientation
+    from plait.diagrams.pd import PDCode, pd_orientation
 
     labels = sorted({x for c in crossings for x in c})
     parent = {x: x for x in labels}
@@ -227,7 +227,7 @@ def test_pd_codes_agree_up_to_mirror():
 
 
 def test_plat_to_pd_round_trip_alexander():
-    # Our plat exported as a PD code (plait.pd.plat_to_pd), read back by the independent
+    # Our plat exported as a PD code (plait.diagrams.pd.plat_to_pd), read back by the independent
     # Wirtinger oracle: same Alexander polynomial and determinant.
     # source: KnotInfo via database-knotinfo for the plats
     for row in KNOTS[::3]:
@@ -241,9 +241,9 @@ def test_plat_to_pd_round_trip_alexander():
 
 @pytest.mark.slow
 def test_pd_to_plat_then_invariants_up_to_mirror():
-    # PD code -> plat (plait.fromdiagram) -> our invariants, against KnotInfo up to mirror
+    # PD code -> plat (plait.diagrams.fromdiagram) -> our invariants, against KnotInfo up to mirror
     # on a sample. source: KnotInfo via database-knotinfo
-    from plait.fromdiagram import diagram_to_plat
+    from plait.diagrams.fromdiagram import diagram_to_plat
 
     for row in KNOTS[::12]:
         p = diagram_to_plat(validate_pd(row.pd), guard=False, directions=2).plat

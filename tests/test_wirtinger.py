@@ -9,15 +9,15 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from kidata import knots
 
-from plait.errors import InputError
-from plait.pd import pd_components, plat_to_pd, validate_pd
-from plait.wirtinger import (
+from plait.diagrams.pd import pd_components, plat_to_pd, validate_pd
+from plait.diagrams.wirtinger import (
     coloring_steps,
     diagram_arcs,
     wirtinger,
     wirtinger_cpsat,
     wirtinger_exhaustive,
 )
+from plait.errors import InputError
 from plait.word import PlatWord
 
 

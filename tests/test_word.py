@@ -20,7 +20,7 @@ from plait import (
     presentation_to_obj,
     validate_pd,
 )
-from plait.pd import pd_components, trace_plat
+from plait.diagrams.pd import pd_components, trace_plat
 
 
 @st.composite

@@ -5,7 +5,9 @@ from __future__ import annotations
 import argparse
 import sys
 
-from plait.search.batch import format_summary, parse_shard, run_batch
+from plait.search.batch import run_batch
+from plait.search.batch_files import format_summary
+from plait.search.batch_shards import parse_shard
 
 NAME = "batch"
 HELP = "reduce every presentation of a JSON Lines or text file into a results table"

@@ -5,7 +5,8 @@ from __future__ import annotations
 import argparse
 import sys
 
-from plait.search.batch import format_summary, merge_batches
+from plait.search.batch_files import format_summary
+from plait.search.batch_shards import merge_batches
 
 NAME = "batch-merge"
 HELP = "combine the output folders of 'plait batch --shard K/N' runs"

@@ -36,7 +36,9 @@ def configure(p: argparse.ArgumentParser) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    from plait.draw import draw_compare, draw_plat, read_run_folder, save_drawing
+    from plait.pictures.draw import draw_compare, draw_plat
+    from plait.pictures.runfolder import read_run_folder
+    from plait.pictures.svg import save_drawing
 
     out = Path(args.out)
     if out.suffix.lower() not in (".svg", ".png"):
@@ -86,7 +88,7 @@ def _summary(plat) -> str:
 
 
 def _batch(folder: Path, out: Path, args: argparse.Namespace) -> int:
-    from plait.batchplot import batch_summary_svg, read_results
+    from plait.pictures.batch import batch_summary_svg, read_results
 
     if (args.before_after or args.positions or args.letters or args.arrows or args.rows
             or args.compact):

@@ -6,8 +6,8 @@ import argparse
 
 from plait.cli import add_input_arguments, emit_json, load_input
 from plait.convert import to_plat
+from plait.diagrams.pd import plat_to_pd
 from plait.errors import InputError
-from plait.pd import plat_to_pd
 
 NAME = "show"
 HELP = "convert a presentation to a plat and summarise it"

@@ -4,8 +4,8 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from plait.pd import PDCode, plat_to_pd
-from plait.wirtinger import occurrence_roles, strand_walks
+from plait.diagrams.pd import PDCode, plat_to_pd
+from plait.diagrams.wirtinger import occurrence_roles, strand_walks
 from plait.word import PlatWord
 
 __all__ = [
@@ -131,7 +131,8 @@ def pd_bracket(pd: PDCode) -> Poly:
 
 
 def pd_crossing_signs(pd: PDCode) -> list[int]:
-    """Sign of every crossing under the PD's own orientation (:func:`plait.pd.pd_orientation`).
+    """Sign of every crossing under the PD's own orientation
+    (:func:`plait.diagrams.pd.pd_orientation`).
 
     The over-strand entering at slot 3 makes a positive (right-handed) crossing.
     """

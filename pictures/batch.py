@@ -9,8 +9,8 @@ from collections import Counter
 from collections.abc import Iterable, Sequence
 from pathlib import Path
 
-from plait.draw import Drawing, Node, Style, save_drawing
 from plait.errors import InputError
+from plait.pictures.svg import Drawing, Node, Style, save_drawing
 
 __all__ = ["read_results", "summary_rows", "batch_summary", "batch_summary_svg"]
 

@@ -6,8 +6,8 @@ import itertools
 from collections import deque
 from dataclasses import dataclass
 
+from plait.diagrams.pd import PDCode, pd_orientation
 from plait.errors import InputError
-from plait.pd import PDCode, pd_orientation
 
 __all__ = [
     "DiagramArcs",
@@ -120,7 +120,7 @@ class Wirtinger:
 def occurrence_roles(pd: PDCode) -> dict[tuple[int, int], int]:
     """Direction of every edge end: ``(crossing, slot) -> +1`` (enters) or ``-1`` (leaves).
 
-    Follows :func:`plait.pd.pd_orientation`; when both ends of an edge sit at the same
+    Follows :func:`plait.diagrams.pd.pd_orientation`; when both ends of an edge sit at the same
     crossing, slot 0 is the entering end and slot 2 the leaving one.
     """
     orient = pd_orientation(pd)

@@ -2,9 +2,9 @@
 
 from __future__ import annotations
 
+from plait.diagrams.pd import PDCode
+from plait.diagrams.wirtinger import occurrence_roles
 from plait.errors import InputError
-from plait.pd import PDCode
-from plait.wirtinger import occurrence_roles
 from plait.word import ClosedBraid
 
 __all__ = ["pd_to_closed_braid", "seifert_circles", "faces"]

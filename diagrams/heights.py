@@ -8,9 +8,9 @@ from fractions import Fraction
 
 import networkx as nx
 
+from plait.diagrams.pd import PDCode, planar_embedding
+from plait.diagrams.wirtinger import Wirtinger, strand_walks
 from plait.errors import InputError
-from plait.pd import PDCode, planar_embedding
-from plait.wirtinger import Wirtinger, strand_walks
 from plait.word import PlatWord
 
 __all__ = ["Lift", "drawing", "lift", "sweep_plat", "Degenerate", "DIRECTIONS"]
@@ -64,7 +64,7 @@ def drawing(pd: PDCode) -> dict:
     """Straight-line integer drawing of the PD diagram's subdivided graph.
 
     Uses the planar embedding given by the code's own rotation system
-    (:func:`plait.pd.planar_embedding`) and networkx's grid drawing. The drawing is
+    (:func:`plait.diagrams.pd.planar_embedding`) and networkx's grid drawing. The drawing is
     reflected when needed so that the four edges at every crossing appear
     counterclockwise in the order of the PD tuple, as the convention demands.
 

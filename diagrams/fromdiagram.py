@@ -4,11 +4,11 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from plait.diagrams.heights import DIRECTIONS, Degenerate, drawing, lift, sweep_plat
+from plait.diagrams.pd import PDCode, pd_components
+from plait.diagrams.pdjones import pd_jones, pd_jones_all_orientations, plat_jones
+from plait.diagrams.wirtinger import Wirtinger, wirtinger
 from plait.errors import GuardViolation, InputError
-from plait.heights import DIRECTIONS, Degenerate, drawing, lift, sweep_plat
-from plait.pd import PDCode, pd_components
-from plait.pdjones import pd_jones, pd_jones_all_orientations, plat_jones
-from plait.wirtinger import Wirtinger, wirtinger
 from plait.word import PlatWord
 
 __all__ = ["DiagramPlat", "diagram_to_plat", "pd_to_plat", "tidy", "check_plat"]
@@ -140,11 +140,12 @@ def diagram_to_plat(pd: PDCode, *, method: str = "auto", time_limit: float = 10.
                     seed: int = 0, directions: int = 8, guard: bool = True) -> DiagramPlat:
     """Plat of a PD diagram with as many bridges as the diagram's Wirtinger number.
 
-    A coloring sequence from the fewest seeds found (CP-SAT, :func:`plait.wirtinger.wirtinger`)
-    gives a height function on the diagram with one maximum per seed, all above the
-    minima (:func:`plait.heights.lift`); the lifted link is projected onto vertical planes
-    along several generic horizontal directions and read as plats by sweeping the height
-    downward (:func:`plait.heights.sweep_plat`). The shortest word is kept.
+    A coloring sequence from the fewest seeds found (CP-SAT,
+    :func:`plait.diagrams.wirtinger.wirtinger`) gives a height function on the diagram with
+    one maximum per seed, all above the minima (:func:`plait.diagrams.heights.lift`); the
+    lifted link is projected onto vertical planes along several generic horizontal
+    directions and read as plats by sweeping the height downward
+    (:func:`plait.diagrams.heights.sweep_plat`). The shortest word is kept.
 
     Parameters
     ----------
@@ -194,7 +195,7 @@ def diagram_to_plat(pd: PDCode, *, method: str = "auto", time_limit: float = 10.
 
 
 def _vogel_route(pd: PDCode) -> DiagramPlat:
-    from plait.vogel import pd_to_closed_braid
+    from plait.diagrams.vogel import pd_to_closed_braid
 
     braid = pd_to_closed_braid(pd)
     return DiagramPlat(tidy(braid.to_plat()), "vogel", None, None, 0)
