@@ -4,7 +4,7 @@ Usage::
 
     .venv/bin/python bench/beyond.py [--cases 6] [--time 5] [--budget 5] [--seed 0]
                                      [--families torus,sum2,...] [--table13 [--limit N]]
-                                     [--speed N] [--verbose]
+                                     [--family-cases twisted5=2,...] [--speed N] [--verbose]
 
 One row per family, each case run through the real :func:`plait.bridge.bridge_report`
 (search ``--time`` seconds, lower bounds within ``--budget`` seconds each time they are
@@ -24,9 +24,10 @@ computed). The cases are drawn from ``--seed``:
 Columns: cases; ``upper = b %`` (the report's plat has ``b`` bridges); ``certified %``
 (lower = upper = ``b``); contradictions (lower > ``b`` or upper < ``b``: must be 0);
 median wall seconds per case. ``--table13`` runs the 13-crossing KnotInfo knots of bridge
-index 4 from their PD codes (``--limit`` of them; all 468 by default) and prints the same
-row. ``--speed N`` adds a table of CPU seconds of the lower bounds alone on 4-bridge plats of
-about 500 letters, without a budget and with ``--budget``.
+index 4 from their PD codes (``--limit`` of them, evenly spaced through the table; all 468
+by default) and prints the same row. ``--speed N`` adds a table of CPU seconds of the
+lower bounds alone on 4-bridge plats of about 500 letters, without a budget and with
+``--budget``.
 """
 
 from __future__ import annotations
@@ -47,7 +48,7 @@ sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."
 from kidata import knots  # noqa: E402
 
 from plait.bridge import bridge_report  # noqa: E402
-from plait.pd import validate_pd  # noqa: E402
+from plait.diagrams.pd import validate_pd  # noqa: E402
 from plait.search.families import (  # noqa: E402
     connected_sum_braid,
     scrambled_two_bridge,
@@ -113,7 +114,9 @@ GENERATORS: dict[str, Callable[[random.Random, int], Iterator[Case]]] = {
 def table13_cases(limit: int | None) -> Iterator[Case]:
     # source: KnotInfo via database-knotinfo (PD code, bridge index 4)
     rows = [r for r in knots(13, 13) if r.bridge_index == 4 and r.pd]
-    for r in rows[:limit]:
+    if limit is not None and limit < len(rows):
+        rows = rows[::len(rows) // limit][:limit]  # evenly spaced through the table
+    for r in rows:
         yield r.name, validate_pd(r.pd), 4
 
 
@@ -214,6 +217,8 @@ def main(argv: list[str] | None = None) -> int:
     ap.add_argument("--budget", type=float, default=5.0,
                     help="seconds for each computation of the lower bounds")
     ap.add_argument("--seed", type=int, default=0)
+    ap.add_argument("--family-cases", default="", metavar="F=N,...",
+                    help="cases for single families, e.g. twisted5=2 (overrides --cases)")
     ap.add_argument("--families", default=",".join(FAMILIES),
                     help=f"comma-separated subset of {','.join(FAMILIES)}")
     ap.add_argument("--table13", action="store_true",
@@ -229,6 +234,12 @@ def main(argv: list[str] | None = None) -> int:
     bad = [f for f in fams if f not in GENERATORS]
     if bad:
         ap.error(f"unknown family {bad[0]!r}")
+    counts = dict.fromkeys(fams, args.cases)
+    for item in filter(None, args.family_cases.split(",")):
+        name, _, n = item.partition("=")
+        if name not in GENERATORS or not n.isdigit():
+            ap.error(f"--family-cases: expected FAMILY=N, got {item!r}")
+        counts[name] = int(n)
 
     print("command: " + " ".join([os.path.basename(sys.executable), "bench/beyond.py"]
                                  + sys.argv[1:]))
@@ -240,7 +251,7 @@ def main(argv: list[str] | None = None) -> int:
     with tempfile.TemporaryDirectory() as root:
         for f in fams:
             rng = random.Random(f"{args.seed}:{f}")
-            print(row(f, GENERATORS[f](rng, args.cases), args, root), flush=True)
+            print(row(f, GENERATORS[f](rng, counts[f]), args, root), flush=True)
         if args.table13:
             print(row("table13", table13_cases(args.limit), args, root), flush=True)
     if args.speed:
