@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from itertools import chain
 
 from plait.diagrams.fromdiagram import diagram_to_plat
 from plait.diagrams.pd import PDCode, plat_to_pd, validate_pd
@@ -31,6 +32,9 @@ class BridgeReport:
         plat's own diagram).
     search : dict
         The JSON of the search run (:meth:`plait.search.api.ReduceResult.to_json`).
+    factors : list of plait.diagrams.composite.Factor
+        The factors of a composite knot, when a confirmed decomposing circle was found
+        (:func:`plait.diagrams.composite.with_factors`); empty otherwise.
     """
 
     lower: int
@@ -40,6 +44,7 @@ class BridgeReport:
     result: PlatWord
     wirtinger: Wirtinger | None
     search: dict = field(default_factory=dict)
+    factors: list = field(default_factory=list)
 
     @property
     def certified(self) -> bool:
@@ -67,6 +72,7 @@ class BridgeReport:
             "proven_minimal": w.proven_minimal,
         }
         obj["pd"] = _pd_list(r)
+        obj["factors"] = [f.to_json() for f in self.factors]
         return obj
 
 
@@ -187,7 +193,20 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
     upper = best.bridges
     if lower > upper:  # pragma: no cover - would be a contradiction between theorems
         raise AssertionError(f"lower bound {lower} exceeds upper bound {upper}")
-    return BridgeReport(lower, upper, lower_reasons, upper_reasons, best, wirt, search)
+    rep = BridgeReport(lower, upper, lower_reasons, upper_reasons, best, wirt, search)
+    if best.components == 1 and res.status != "interrupted":
+        # a composite knot: bound its factors and add (Schubert 1954)
+        from plait.diagrams.composite import visited_diagrams, with_factors
+
+        given = pres if isinstance(pres, PDCode) else _pd_or_none(to_plat(pres))
+        diagrams = chain([("the input diagram", given),
+                          ("the start plat's diagram", _pd_or_none(start)),
+                          ("the best plat's diagram", pd)], visited_diagrams(res.certificate))
+        rep = with_factors(rep, diagrams, time=time, steps=steps, seed=seed,
+                           wirtinger_time=wirtinger_time, handle_signals=handle_signals,
+                           runs_root=runs_root, budget=budget,
+                           run_dir=search.get("run_dir") or None)
+    return rep
 
 
 #: With a budget, a plat's diagram is converted (Wirtinger number, height function and

@@ -26,6 +26,8 @@ def test_knotinfo_to_10_crossings(tmp_path):
                           handle_signals=False)
         assert r.upper == k.bridge_index == r.result.bridges, k.name
         assert r.lower <= k.bridge_index, k.name
+        # KnotInfo's knots are prime: no two knotted factors are ever claimed
+        assert not r.factors, k.name
         certified += r.certified
         assert plat_jones(r.result) == k.jones, k.name
     assert len(rows) == 249

@@ -55,6 +55,13 @@ def run(args: argparse.Namespace) -> int:
         pd = rep.to_json()["pd"]
         if pd is not None:
             print("pd:     [" + ",".join("[" + ",".join(map(str, c)) + "]" for c in pd) + "]")
+        for i, f in enumerate(rep.factors, start=1):
+            b = (f"b = {f.upper} (certified)" if f.certified
+                 else f"{f.lower} ≤ b ≤ {f.upper}")
+            print(f"factor {i}: {b}; plat {f.plat.strands} strands, {f.plat.length} "
+                  f"crossings: {f.plat if f.plat.word else '(empty)'}; pd {f.pd}")
+            for r in f.lower_reasons:
+                print(f"  lower:  {r}")
     if rep.search.get("status") == "interrupted":
         sys.stderr.write(f"plait: interrupted; the search can be continued with: plait resume "
                          f"{rep.search.get('run_dir')}\n")
