@@ -431,7 +431,7 @@ def _invertible_known(f: Factor) -> bool:
 
 def with_factors(report, diagrams: Iterable[tuple[str, PDCode | None]], *, time=None,
                  steps=None, seed: int = 0, wirtinger_time: float = 10.0,
-                 handle_signals: bool = True, runs_root=None, run_dir=None):
+                 handle_signals: bool = True, runs_root=None, run_dir=None, budget=None):
     """Bound a composite knot through its factors (Schubert's additivity).
 
     The diagrams are searched in order for confirmed decomposing circles
@@ -489,7 +489,7 @@ def with_factors(report, diagrams: Iterable[tuple[str, PDCode | None]], *, time=
     for i, f in enumerate(fs, start=1):
         sub = bridge_report(f, time=share, steps=steps, seed=seed, quiet=True,
                             wirtinger_time=wirtinger_time, handle_signals=handle_signals,
-                            runs_root=runs_root,
+                            runs_root=runs_root, budget=budget,
                             run_dir=None if run_dir is None else Path(run_dir) / f"factor-{i}")
         if sub.factors:
             factors.extend(sub.factors)

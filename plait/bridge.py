@@ -100,7 +100,7 @@ def _diagram_bound(pd: PDCode, time_limit: float, what: str):
 def bridge_report(pres: Presentation, *, time: float | None = None, steps: int | None = None,
                   seed: int = 0, run_dir=None, quiet: bool = True,
                   wirtinger_time: float = 10.0, handle_signals: bool = True,
-                  runs_root=None) -> BridgeReport:
+                  runs_root=None, budget: float | None = None) -> BridgeReport:
     """Estimate the bridge number of a link: convert, search, and bound from both sides.
 
     Runs exactly the search of ``plait reduce`` (:func:`plait.search.reduce`, strategy
@@ -118,6 +118,12 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
         Passed to :func:`plait.search.reduce` (``steps=0`` skips the search moves).
     wirtinger_time : float
         Seconds for the Wirtinger solve of an input PD code (the report's reason).
+    budget : float, optional
+        Seconds for each computation of the lower bounds (the slow methods that do not
+        fit are reported as "not tried: …"); None: no limit. The bounds are computed at
+        the start of the search (so that it stops once certified) and again on the best
+        plat found (fewest bridges, then shortest), cached by the knot's fingerprint
+        within the run: a knot's bounds are recomputed only on a strictly simpler plat.
 
     Returns
     -------
@@ -130,8 +136,10 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
     .. [2] J. S. Birman, "On the stable equivalence of plat representations of knots and
        links", Canad. J. Math. 28 (1976).
     """
+    from plait.scoring.bounds import check_budget
     from plait.search import reduce
 
+    budget = check_budget(budget)
     upper_reasons: list[str] = []
     wirt: Wirtinger | None = None
     if isinstance(pres, PDCode):
@@ -142,9 +150,20 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
     # one answer: the search path of plait reduce, with its defaults (strategy auto,
     # objective bridges); its diagram steps rebuild plats from Wirtinger colorings
     res = reduce(pres, time=time, steps=steps, seed=seed, run_dir=run_dir, quiet=quiet,
-                 objective="bridges", handle_signals=handle_signals, **kw)
+                 objective="bridges", handle_signals=handle_signals, bounds_budget=budget,
+                 **kw)
     best, start = res.result, res.input
     search = res.to_json()
+    lower, lower_reasons = res.lower, list(res.reasons)
+    if lower < best.bridges and res.status == "done":
+        # the bounds again on the best plat (reached by the search's certified moves),
+        # unless this knot's bounds were already computed on a plat at least as simple
+        cache = RunBounds()
+        cache.put(res.input, res.lower, res.reasons)
+        got = cache.get_or_compute(best, budget)
+        if got[0] > lower or (got[0] == lower and not _has_not_tried(got[1])
+                              and _has_not_tried(lower_reasons)):
+            lower, lower_reasons = got
     if not isinstance(pres, PDCode):
         upper_reasons.append(f"the input as a plat has {start.bridges} bridges")
     steps_wirt = _diagram_steps(res)
@@ -160,10 +179,9 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
         upper_reasons.append(f"the search found a plat with {best.bridges} bridges "
                              f"(certificate {res.certificate})")
     upper = best.bridges
-    lower = res.lower
     if lower > upper:  # pragma: no cover - would be a contradiction between theorems
         raise AssertionError(f"lower bound {lower} exceeds upper bound {upper}")
-    rep = BridgeReport(lower, upper, list(res.reasons), upper_reasons, best, wirt, search)
+    rep = BridgeReport(lower, upper, lower_reasons, upper_reasons, best, wirt, search)
     if best.components == 1 and res.status != "interrupted":
         # a composite knot: bound its factors and add (Schubert 1954)
         from plait.convert import to_plat
@@ -176,9 +194,52 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
                          visited_diagrams(res.certificate))
         rep = with_factors(rep, diagrams, time=time, steps=steps, seed=seed,
                            wirtinger_time=wirtinger_time, handle_signals=handle_signals,
-                           runs_root=runs_root,
+                           runs_root=runs_root, budget=budget,
                            run_dir=search.get("run_dir") or None)
     return rep
+
+
+def _has_not_tried(reasons: list[str] | tuple[str, ...]) -> bool:
+    return any(r.startswith("not tried:") for r in reasons)
+
+
+class RunBounds:
+    """Lower bounds of one knot within one run, keyed by its cheap fingerprint.
+
+    Every plat offered belongs to the same run, so to the same knot (the search's moves
+    certify it); the fingerprint is only the key. A knot's bounds are (re)computed on a
+    plat strictly simpler (fewer bridges, then fewer letters) than the one they were
+    computed on, and the best bound is kept.
+    """
+
+    def __init__(self) -> None:
+        # fingerprint JSON -> ((bridges, length) of the plat used, bound, reasons)
+        self._seen: dict[str, tuple[tuple[int, int], int, list[str]]] = {}
+
+    @staticmethod
+    def _key(plat: PlatWord) -> str:
+        import json
+
+        from plait.scoring import fingerprint
+
+        return json.dumps(fingerprint(plat, "cheap").to_json(), sort_keys=True)
+
+    def put(self, plat: PlatWord, value: int, reasons: list[str]) -> None:
+        self._seen[self._key(plat)] = ((plat.bridges, plat.length), value, list(reasons))
+
+    def get_or_compute(self, plat: PlatWord, budget: float | None) -> tuple[int, list[str]]:
+        from plait.scoring.bounds import bridge_lower_bound
+
+        key = self._key(plat)
+        old = self._seen.get(key)
+        if old is not None and old[0] <= (plat.bridges, plat.length):
+            return old[1], old[2]
+        lb = bridge_lower_bound(plat, budget)
+        value, reasons = int(lb.value), [str(r) for r in lb.reasons]
+        if old is not None and old[1] > value:
+            value, reasons = old[1], old[2]
+        self._seen[key] = ((plat.bridges, plat.length), value, reasons)
+        return value, reasons
 
 
 def _pd_or_none(plat: PlatWord) -> PDCode | None:

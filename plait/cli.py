@@ -101,6 +101,15 @@ def add_search_arguments(parser: argparse.ArgumentParser, *, steps_help: str) ->
     parser.add_argument("--quiet", action="store_true", help="no progress bar")
 
 
+def add_bounds_time_argument(parser: argparse.ArgumentParser) -> None:
+    """``--bounds-time SECONDS``: the time budget of the lower bounds
+    (:func:`plait.scoring.bounds.bridge_lower_bound`); slow methods that do not fit are
+    reported as "not tried"."""
+    parser.add_argument("--bounds-time", type=float, metavar="SECONDS",
+                        help="seconds for the lower bounds; slow methods that do not fit "
+                             "are reported as 'not tried' (default: no limit)")
+
+
 def emit_json(obj: object) -> None:
     """Print one JSON object on stdout."""
     sys.stdout.write(json.dumps(obj) + "\n")

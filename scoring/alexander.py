@@ -278,6 +278,13 @@ def _is_unit(a: list) -> bool:
 def _pmul(a: list, b: list, p: int | None) -> list:
     if not a or not b:
         return []
+    if p and p < (1 << 31) and len(a) * len(b) > 256 and min(len(a), len(b)) < (1 << 16):
+        # two int64 convolutions: b = lo + 2^16 hi keeps each sum below 2^63
+        A = np.array(a, dtype=np.int64) % p
+        B = np.array(b, dtype=np.int64) % p
+        lo = np.convolve(A, B & 0xFFFF) % p
+        hi = np.convolve(A, B >> 16) % p
+        return lp._trim(((lo + (hi << 16) % p) % p).tolist())
     out = [0] * (len(a) + len(b) - 1)
     for i, x in enumerate(a):
         if x:
@@ -290,6 +297,11 @@ def _pmul(a: list, b: list, p: int | None) -> list:
 
 def _psub(a: list, b: list, p: int | None) -> list:
     m = max(len(a), len(b))
+    if p and m > 64 and p < (1 << 62):
+        out = np.zeros(m, dtype=np.int64)
+        out[:len(a)] = np.array(a, dtype=np.int64) % p
+        out[:len(b)] -= np.array(b, dtype=np.int64) % p
+        return lp._trim((out % p).tolist())
     out = [(a[i] if i < len(a) else 0) - (b[i] if i < len(b) else 0) for i in range(m)]
     if p:
         out = [c % p for c in out]
@@ -373,7 +385,8 @@ def _zexact_div(a: list, b: list) -> list:
     return _primitive([q])[0]
 
 
-def invariant_factor_count(M: list[list[dict]], p: int | None) -> int:
+def invariant_factor_count(M: list[list[dict]], p: int | None,
+                           deadline: float | None = None) -> int:
     """Number of non-unit invariant factors (zeros included) of a square Laurent matrix
     over ``F_p[t, t^-1]`` (``p`` prime) or ``Q[t, t^-1]`` (``p = None``).
 
@@ -390,7 +403,14 @@ def invariant_factor_count(M: list[list[dict]], p: int | None) -> int:
        congruences", Phil. Trans. R. Soc. 151 (1861).
     .. [2] G. E. Collins, "Subresultants and reduced polynomial remainder sequences",
        J. ACM 14 (1967): primitive remainder sequences.
+
+    Raises
+    ------
+    TimeoutError
+        When ``deadline`` (a :func:`time.thread_time` value) passes during the elimination.
     """
+    import time
+
     A = _to_field_rows(M, p)
     size = len(A)
     diag: list[list] = []
@@ -403,6 +423,8 @@ def invariant_factor_count(M: list[list[dict]], p: int | None) -> int:
         for row in A:
             row[0], row[j0] = row[j0], row[0]
         while True:
+            if deadline is not None and time.thread_time() > deadline:
+                raise TimeoutError("invariant factors: time budget used up")
             piv = A[0][0]
             changed = False
             for i in range(1, len(A)):

@@ -2,7 +2,9 @@
 
 from __future__ import annotations
 
+import time as _time
 from collections.abc import Callable
+from contextvars import ContextVar
 from dataclasses import dataclass, field
 from fractions import Fraction
 from functools import cache, lru_cache
@@ -15,6 +17,7 @@ __all__ = [
     "not_two_bridge",
     "separating_invariants",
     "FOX_PRIMES",
+    "check_budget",
 ]
 
 #: Primes tried for Fox colorings besides those dividing the determinant.
@@ -130,8 +133,23 @@ def _describe(p: int, q: int) -> str:
     return f"S({p},{q})"
 
 
-@lru_cache(maxsize=4096)
+# (plat, det) -> (proved, reason); results cut short by a time budget are not kept
+_NOT_TWO_BRIDGE_CACHE: dict[tuple[PlatWord, int], tuple[bool, str]] = {}
+
+
 def _not_two_bridge(plat: PlatWord, det: int) -> tuple[bool, str]:
+    key = (plat, det)
+    if key in _NOT_TWO_BRIDGE_CACHE:
+        return _NOT_TWO_BRIDGE_CACHE[key]
+    out = _not_two_bridge_uncached(plat, det)
+    if not (_DEADLINE.get() is not None and "time budget" in out[1]):
+        if len(_NOT_TWO_BRIDGE_CACHE) >= 4096:
+            _NOT_TWO_BRIDGE_CACHE.clear()
+        _NOT_TWO_BRIDGE_CACHE[key] = out
+    return out
+
+
+def _not_two_bridge_uncached(plat: PlatWord, det: int) -> tuple[bool, str]:
     from plait.scoring.twobridge import MAX_DETERMINANT, two_bridge_classes
 
     comps = plat.components
@@ -143,14 +161,29 @@ def _not_two_bridge(plat: PlatWord, det: int) -> tuple[bool, str]:
         return True, f"determinant {det} is odd; a 2-component 2-bridge link S(p,q) has p even"
     if comps == 1 and det % 2 == 0:
         return True, f"determinant {det} is even; a 2-bridge knot S(p,q) has p odd"
+    why = _listing_free_obstruction(plat, det)
+    if why is not None:
+        return True, why
+    if _out_of_time():
+        return False, _not_tried("listing the 2-bridge candidates")
     if det > MAX_DETERMINANT:
-        return False, (f"determinant {det} is too large to list its 2-bridge candidates "
-                       f"(limit {MAX_DETERMINANT})")
-    classes = two_bridge_classes(det)
+        return False, (f"not tried: listing the 2-bridge candidates of determinant {det} "
+                       f"(over the limit of {MAX_DETERMINANT} for its cost); "
+                       f"{_LISTING_FREE_PASSED}")
+    # shortest normal forms first: their invariants are the cheapest (for a budget)
+    classes = tuple(sorted(two_bridge_classes(det), key=lambda q: _cf_length(det, q)))
+    classes, cut = _linking_form_cut(plat, det, classes)
+    kind = "knot" if comps == 1 else "2-component link"
+    if not classes:
+        return True, (f"every 2-bridge {kind} of determinant {det} is one of the Schubert "
+                      f"normal forms S({det},q) (mirrors included): {cut}")
     invariants = separating_invariants(comps)
     ours: dict[int, object] = {}
     used: dict[str, list[str]] = {}
-    for q in classes:
+    for done, q in enumerate(classes):
+        if done and _out_of_time():
+            return False, _not_tried(f"comparing the 2-bridge candidates of determinant "
+                                     f"{det} after {done} of {len(classes)}")
         ruled = None
         for i, (name, fn) in enumerate(invariants):
             if i not in ours:
@@ -165,10 +198,135 @@ def _not_two_bridge(plat: PlatWord, det: int) -> tuple[bool, str]:
             return False, (f"{_describe(det, q)} agrees with it on every invariant computed "
                            f"({_summarize(tried)}); it may be 2-bridge")
         used.setdefault(ruled, []).append(_describe(det, q))
-    kind = "knot" if comps == 1 else "2-component link"
     listing = "; ".join(f"{', '.join(names)} by the {inv}" for inv, names in used.items())
+    if cut:
+        listing = f"{cut}; the other {len(classes)}: {listing}"
+        return True, (f"every 2-bridge {kind} of determinant {det} is one of the Schubert "
+                      f"normal forms S({det},q) (mirrors included) and each differs: "
+                      f"{listing}")
     return True, (f"every 2-bridge {kind} of determinant {det} is one of {len(classes)} "
                   f"Schubert normal forms (mirrors included) and each differs: {listing}")
+
+
+_LISTING_FREE_PASSED = ("its Jones and Alexander polynomials alternate and H_1 of its double "
+                        "branched cover is cyclic, as for a 2-bridge link")
+
+
+def _cf_length(p: int, q: int) -> int:
+    """Crossings of Schubert's normal form of ``S(p, q)``: the sum of the terms of the
+    continued fraction of ``p/q`` (Euclid's quotients)."""
+    total = 0
+    while q:
+        total += p // q
+        p, q = q, p % q
+    return total
+
+
+def _format_homology(h: tuple[int, ...]) -> str:
+    return " ⊕ ".join("Z" if d == 0 else f"Z/{d}" for d in h) if h else "0"
+
+
+def _listing_free_obstruction(plat: PlatWord, det: int) -> str | None:
+    """A reason why the plat closure (a knot or 2-component link with bridges >= 3) is
+    not 2-bridge that lists no candidates, or None.
+
+    * The double branched cover of ``S(p, q)`` is the lens space ``L(p, q)`` (Schubert
+      1956), so ``H_1`` is cyclic: at most one non-trivial invariant factor of the
+      coloring matrix (:func:`plait.scoring.goeritz.double_cover_homology`).
+    * A 2-bridge link other than the unlink (det 0) is non-split and alternating
+      (Schubert's normal form is a reduced alternating diagram), so its Jones polynomial
+      alternates in sign, has extreme coefficients ``±1`` and span at most the
+      determinant, and a 2-bridge knot's Alexander polynomial alternates in sign
+      (:mod:`plait.scoring.alternating`).
+    """
+    from plait.scoring.alexander import alexander
+    from plait.scoring.alternating import alexander_obstruction, jones_obstruction
+    from plait.scoring.goeritz import double_cover_homology
+    from plait.scoring.jones import MAX_JONES_BRIDGES, jones
+
+    h = double_cover_homology(plat)
+    if len(h) >= 2:
+        return (f"H_1 of the double branched cover is {_format_homology(h)}, not cyclic; the "
+                "double branched cover of a 2-bridge link S(p,q) is the lens space L(p,q) "
+                "(Schubert 1956)")
+    if det == 0:
+        return None  # the unlink is the 2-bridge link of determinant 0: split, not alternating
+    if plat.components == 1:
+        why = alexander_obstruction(alexander(plat))
+        if why is not None:
+            return why + "; a 2-bridge knot is alternating (Schubert normal form)"
+    if plat.bridges <= MAX_JONES_BRIDGES:
+        why = jones_obstruction(jones(plat), det)
+        if why is not None:
+            return why + "; a 2-bridge link is non-split alternating (Schubert normal form)"
+    return None
+
+
+def _linking_form_cut(plat: PlatWord, det: int, classes: tuple[int, ...]
+                      ) -> tuple[tuple[int, ...], str]:
+    """The candidates ``S(det, q)`` whose lens space has the plat closure's linking form
+    (``q/p`` up to squares at each odd prime dividing ``p``: Seifert 1933), and a sentence
+    on those cut (empty when none is)."""
+    from plait.scoring.goeritz import linking_form_class, odd_prime_divisors, square_class
+
+    if det < 3:
+        return classes, ""
+    primes = odd_prime_divisors(det)
+    if not primes:
+        return classes, ""
+    ours = linking_form_class(plat, det, primes)
+    if ours is None:
+        return classes, ""
+    kept = tuple(q for q in classes if square_class(q, det, primes) == ours)
+    if len(kept) == len(classes):
+        return classes, ""
+    return kept, (f"{len(classes) - len(kept)} of the {len(classes)} candidates have another "
+                  f"linking form of the double branched cover (L(p,q) has q/p up to squares "
+                  f"mod each prime of p: Seifert 1933; read from the Goeritz matrix)")
+
+
+# -- the time budget ---------------------------------------------------------------------
+
+#: Monotonic deadline of the bound being computed (None: no budget), and the methods
+#: skipped because it passed.
+_DEADLINE: ContextVar[float | None] = ContextVar("bounds_deadline", default=None)
+_SKIPPED: ContextVar[list | None] = ContextVar("bounds_skipped", default=None)
+_BUDGET: ContextVar[float | None] = ContextVar("bounds_budget", default=None)
+
+
+def _clock() -> float:
+    """CPU seconds of this thread: the budget counts the bound's own work, whatever else
+    runs on the machine."""
+    return _time.thread_time()
+
+
+def _out_of_time() -> bool:
+    d = _DEADLINE.get()
+    return d is not None and _clock() > d
+
+
+def _not_tried(what: str) -> str:
+    """The reason for a method skipped for its cost, recorded for the report."""
+    why = f"not tried: {what} (time budget of {_BUDGET.get():g} s used up)"
+    skipped = _SKIPPED.get()
+    if skipped is not None and why not in skipped:
+        skipped.append(why)
+    return why
+
+
+def check_budget(budget: object, what: str = "budget") -> float | None:
+    """``budget`` as seconds (a positive finite number) or None; InputError otherwise."""
+    import math
+
+    from plait.errors import InputError
+
+    if budget is None:
+        return None
+    if isinstance(budget, bool) or not isinstance(budget, (int, float)) or \
+            not math.isfinite(budget) or budget <= 0:
+        raise InputError(f"{what}: expected a positive, finite number of seconds, got "
+                         f"{budget!r}")
+    return float(budget)
 
 
 def _summarize(names: list[str]) -> str:
@@ -232,7 +390,7 @@ def _unknot_distinguished(plat: PlatWord) -> str | None:
 
 
 @lru_cache(maxsize=4096)
-def bridge_lower_bound(plat: PlatWord, deadline: float | None = None) -> LowerBound:
+def bridge_lower_bound(plat: PlatWord, budget: float | None = None) -> LowerBound:
     """A lower bound on the bridge number of the plat closure, with its reasons.
 
     Bounds, cheapest first (each reason names the theorem and the computed quantity):
@@ -244,19 +402,26 @@ def bridge_lower_bound(plat: PlatWord, deadline: float | None = None) -> LowerBo
       the unknot's is knotted, so ``b >= 2``;
     * Fox colorings: the space of Fox ``p``-colorings has dimension at most ``b``
       (a coloring is determined by the colors of the bridges);
+    * the double branched cover: ``H_1`` needs at most ``b - 1`` generators (a genus
+      ``b - 1`` Heegaard splitting), read from the Smith normal form of the coloring
+      matrix with no factoring;
     * Nakanishi index: ``b >= m + 1``;
     * not 2-bridge (Schubert 1956 classification, :func:`not_two_bridge`): ``b >= 3``;
     * meridional rank: a homomorphism to a finite group with meridians sent into one
       conjugacy class whose image is not generated by fewer than ``k`` meridian images:
       ``b >= k`` (Boileau–Zieschang 1985, Baader–Blair–Kjuchukova 2021;
-      :mod:`plait.scoring.meridional`).
+      :mod:`plait.scoring.meridional`); the search gets what is left of the budget.
 
     Parameters
     ----------
     plat : PlatWord
-    deadline : float, optional
-        A :func:`time.monotonic` value capping the meridional-rank search; the groups it
-        could not try are named in the reason ("not tried").
+    budget : float, optional
+        CPU seconds of the calling thread for the whole bound (not wall time, so a loaded
+        machine does not change what is tried). The cheap bounds (components, knottedness, Fox
+        colorings, the double branched cover, the listing-free not-2-bridge tests) are
+        always computed; a slow method (Alexander module, candidate listing,
+        homomorphism searches) is started only while time is left, and one that is not
+        appears in ``reasons`` as ``"not tried: … (time budget of … s used up)"``.
 
     Returns
     -------
@@ -271,8 +436,28 @@ def bridge_lower_bound(plat: PlatWord, deadline: float | None = None) -> LowerBo
        (1981): the Alexander module needs at most ``b - 1`` generators.
     .. [5] M. Boileau and H. Zieschang, Comment. Math. Helv. 60 (1985).
     .. [6] S. Baader, R. Blair and A. Kjuchukova, Math. Ann. 379 (2021).
+    .. [7] M. Boileau and J.-P. Otal, "Groupe des difféotopies de certaines variétés de
+       Seifert", C. R. Acad. Sci. Paris 303 (1986) (from memory): the double branched cover
+       of a ``b``-bridge link has a genus ``b - 1`` Heegaard splitting.
     """
-    from plait.scoring.alexander import fox_coloring_dimension, nakanishi_lower_bound
+    budget = check_budget(budget)
+    tokens = (_DEADLINE.set(None if budget is None else _clock() + budget),
+              _SKIPPED.set([]), _BUDGET.set(budget))
+    try:
+        lb = _bridge_lower_bound(plat)
+        skipped = _SKIPPED.get()
+        if skipped and not lb.exact:
+            lb = LowerBound(lb.value, lb.reasons + tuple(skipped), lb.method, lb.exact)
+        return lb
+    finally:
+        _BUDGET.reset(tokens[2])
+        _SKIPPED.reset(tokens[1])
+        _DEADLINE.reset(tokens[0])
+
+
+def _bridge_lower_bound(plat: PlatWord) -> LowerBound:
+    from plait.scoring.alexander import fox_coloring_dimension
+    from plait.scoring.goeritz import double_cover_homology
 
     found: list[tuple[int, str, str]] = []  # (bound, method, reason)
     comps = plat.components
@@ -306,7 +491,15 @@ def bridge_lower_bound(plat: PlatWord, deadline: float | None = None) -> LowerBo
         d, p = best_fox
         found.append((d, "fox", f"Fox {p}-colorings have dimension {d} → b ≥ {d} "
                       "(a coloring is fixed by the colors of the bridges; Fox 1962)"))
-    m, why = nakanishi_lower_bound(plat)
+    h = double_cover_homology(plat)
+    if len(h) + 1 >= 2 and (best_fox is None or len(h) + 1 > best_fox[0]):
+        found.append((len(h) + 1, "double-cover",
+                      f"H_1 of the double branched cover is {_format_homology(h)} "
+                      f"(Smith normal form of the coloring matrix), {len(h)} "
+                      f"generator{'s' * (len(h) > 1)} → b ≥ {len(h) + 1} (the double "
+                      "branched cover of a b-bridge link has a genus b − 1 Heegaard "
+                      "splitting)"))
+    m, why = _module_bound(plat)
     if m >= 1:
         found.append((m + 1, "nakanishi",
                       f"the Alexander module needs at least {m} generator{'s' * (m > 1)} "
@@ -317,7 +510,7 @@ def bridge_lower_bound(plat: PlatWord, deadline: float | None = None) -> LowerBo
         if proved:
             found.append((3, "not-2-bridge", f"not 2-bridge: {why} → b ≥ 3 (Schubert 1956)"))
         else:
-            rank = _meridional(plat, 3, deadline)
+            rank = _meridional(plat, 3)
             if rank.value >= 3:
                 found.append((rank.value, "meridional-rank", rank.reason()))
             else:
@@ -326,7 +519,7 @@ def bridge_lower_bound(plat: PlatWord, deadline: float | None = None) -> LowerBo
     best = max(b for b, _, _ in found)
     if 3 <= best < plat.bridges and not any(m == "meridional-rank" for _, m, _ in found):
         # finite quotients whose image needs more meridians: b >= 4 and more
-        rank = _meridional(plat, best + 1, deadline)
+        rank = _meridional(plat, best + 1)
         if rank.value > best:
             found.append((rank.value, "meridional-rank", rank.reason()))
     best = max(b for b, _, _ in found)
@@ -337,11 +530,48 @@ def bridge_lower_bound(plat: PlatWord, deadline: float | None = None) -> LowerBo
     return LowerBound(best, tuple(reasons), method, best == plat.bridges)
 
 
-def _meridional(plat: PlatWord, want: int, deadline: float | None):
+def _module_bound(plat: PlatWord) -> tuple[int, str]:
+    """:func:`plait.scoring.alexander.nakanishi_lower_bound` within the time budget: the
+    rings are tried in order and those not finished in time are reported as not tried."""
+    from plait.scoring.alexander import (
+        alexander_matrix,
+        invariant_factor_count,
+        module_bound_rings,
+        nakanishi_lower_bound,
+    )
+
+    if _DEADLINE.get() is None:
+        return nakanishi_lower_bound(plat)
+    M = alexander_matrix(plat)
+    best, best_ring, missed = 0, None, []
+    for p in module_bound_rings(plat):
+        ring = "Q[t,t^-1]" if p is None else f"F_{p}[t,t^-1]"
+        if _out_of_time():
+            missed.append(ring)
+            continue
+        try:
+            k = invariant_factor_count(M, p, _DEADLINE.get()) - 1
+        except TimeoutError:
+            missed.append(ring)
+            continue
+        if k > best:
+            best, best_ring = k, ring
+    if missed:
+        _not_tried(f"the Alexander module over {', '.join(missed)} (Nakanishi index)")
+    if best == 0:
+        return 0, "no non-unit invariant factor besides the free summand"
+    return best, (f"Alexander module over {best_ring} has {best} non-unit invariant "
+                  f"factor{'s' if best != 1 else ''} besides the free summand")
+
+
+def _meridional(plat: PlatWord, want: int):
     # b >= 3: every default target with the full budget (rarely needed: the 2-bridge
-    # classification usually decides first); b >= 4 and more: the rank targets
+    # classification usually decides first); b >= 4 and more: the rank targets. The
+    # search takes a monotonic deadline: what is left of the CPU budget, from now.
     from plait.scoring.meridional import DEFAULT_TARGETS, RANK_TARGETS, meridional_rank_bound
 
+    d = _DEADLINE.get()
+    deadline = None if d is None else _time.monotonic() + max(0.0, d - _clock())
     if want <= 3:
         return meridional_rank_bound(plat, want, deadline=deadline, ops=QUOTIENT_BUDGET,
                                      names=DEFAULT_TARGETS)

@@ -103,7 +103,8 @@ def symmetrize(p: dict) -> dict:
     if not p:
         return {}
     lo = min(p)
-    return {e - lo - span(p) // 2: c for e, c in sorted(p.items())}
+    shift = lo + span(p) // 2  # computed once: span is linear in the number of terms
+    return {e - shift: c for e, c in sorted(p.items())}
 
 
 def equal_up_to_unit(p: dict, q: dict) -> bool:
@@ -210,6 +211,8 @@ def poly_divmod_field(a: list, b: list, p: int | None) -> tuple[list, list]:
     """Quotient and remainder of polynomials over ``F_p`` (``p`` prime) or ``Q``
     (``p = None``, Fraction coefficients). Lists hold coefficients, lowest degree first;
     ``b`` must be nonzero and trimmed."""
+    if p and p < _NUMPY_PRIME and len(a) * len(b) > 256:
+        return _divmod_numpy(a, b, p)
     a = list(a)
     db = len(b) - 1
     inv = pow(b[-1], -1, p) if p else Fraction(1) / b[-1]
@@ -226,6 +229,29 @@ def poly_divmod_field(a: list, b: list, p: int | None) -> tuple[list, list]:
                 a[k + i] %= p
         _trim(a)
     return q, a
+
+
+# Primes below this keep every product c * b of two residues inside int64.
+_NUMPY_PRIME = 1 << 31
+
+
+def _divmod_numpy(a: list, b: list, p: int) -> tuple[list, list]:
+    """:func:`poly_divmod_field` over ``F_p``, ``p < 2^31``, one vector operation per
+    quotient term."""
+    import numpy as np
+
+    r = np.array(a, dtype=np.int64) % p
+    bb = np.array(b, dtype=np.int64) % p
+    db = len(b) - 1
+    inv = pow(int(bb[-1]), -1, p)
+    n = len(a) - db
+    q = [0] * max(n, 0)
+    for k in range(n - 1, -1, -1):
+        c = int(r[k + db]) * inv % p
+        if c:
+            q[k] = c
+            r[k:k + db + 1] = (r[k:k + db + 1] - c * bb) % p
+    return q, _trim(r[:db].tolist() if n > 0 else r.tolist())
 
 
 def poly_gcd_field(a: list, b: list, p: int | None) -> list:

@@ -135,10 +135,10 @@ def _fp_json(fp) -> object:
     return fp.to_json() if hasattr(fp, "to_json") else fp
 
 
-def _lower_bound(plat: PlatWord) -> tuple[int, list[str]]:
+def _lower_bound(plat: PlatWord, budget: float | None = None) -> tuple[int, list[str]]:
     from plait.scoring.bounds import bridge_lower_bound
 
-    lb = bridge_lower_bound(plat)
+    lb = bridge_lower_bound(plat, budget)
     return int(lb.value), [str(r) for r in lb.reasons]
 
 
@@ -204,7 +204,7 @@ class _Run:
         ctx.offer(plat, node)
         # the certified bound is an invariant of the link: compute it on the shorter plat
         if lower is None:
-            lower, reasons = _lower_bound(ctx.best)
+            lower, reasons = _lower_bound(ctx.best, cfg.get("bounds_budget"))
         self.lower, self.reasons = lower, reasons
         ctx.lower_bound = max(1, lower)
         self.strategy = make_strategy(cfg["strategy"], ctx, cfg.get("params"), self.budget,
@@ -542,7 +542,7 @@ def reduce(presentation, *, strategy: str = "auto", time: float | None = None,
            steps: int | None = None, seed: int = 0, run_dir=None, quiet: bool = True,
            objective: str = "bridges", kinds=None, params: dict | None = None,
            handle_signals: bool = True, checkpoint_every: float = CHECKPOINT_EVERY,
-           runs_root=DEFAULT_RUNS) -> ReduceResult:
+           runs_root=DEFAULT_RUNS, bounds_budget: float | None = None) -> ReduceResult:
     """Search for the simplest plat of the link of ``presentation``.
 
     Parameters
@@ -576,6 +576,9 @@ def reduce(presentation, *, strategy: str = "auto", time: float | None = None,
         much work; new bests are written within half a second).
     runs_root : path-like
         Parent of new run folders (default ``runs``).
+    bounds_budget : float, optional
+        Seconds for the lower bound computed at the start (see
+        :func:`plait.scoring.bounds.bridge_lower_bound`); None: no limit.
 
     Returns
     -------
@@ -624,12 +627,17 @@ def reduce(presentation, *, strategy: str = "auto", time: float | None = None,
     if params is not None and not isinstance(params, dict):
         raise InputError(f"params: expected a dict of strategy parameters, got {params!r}")
     check_params(strategy, params)
+    from plait.scoring.bounds import check_budget
+
+    bounds_budget = check_budget(bounds_budget, "bounds_budget")
     config = {
         "format": "plait-search-config/1",
         "strategy": strategy, "time": time, "steps": steps, "seed": seed,
         "objective": obj.spec(), "kinds": kinds, "params": params,
         "checkpoint_every": float(checkpoint_every),
     }
+    if bounds_budget is not None:
+        config["bounds_budget"] = bounds_budget
     input_obj = presentation_to_obj(pres)
     folder = RunFolder(run_dir if run_dir is not None else new_run_dir(runs_root))
     folder.create()

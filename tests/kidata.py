@@ -15,6 +15,10 @@ def parse_laurent(text: str, var: str = "t") -> dict[Fraction, int]:
     """Parse a KnotInfo polynomial string such as ``'t^(-2)-t^(-1)+ 1-t+ t^2'`` or
     ``'-x-x^5'`` into ``{exponent: coefficient}`` (exponents as Fractions)."""
     s = text.replace(" ", "").replace("sqrt(" + var + ")", var + "^(1/2)")
+    # 13-crossing rows write negative powers as quotients: '-4/t^7', '52/t'
+    s = re.sub(rf"(\d*)/{var}\^\(?(\d+)\)?",
+               lambda m: f"{m.group(1) or 1}*{var}^(-{m.group(2)})", s)
+    s = re.sub(rf"(\d*)/{var}(?![\w^])", lambda m: f"{m.group(1) or 1}*{var}^(-1)", s)
     if not s:
         return {}
     terms, depth, cur = [], 0, ""

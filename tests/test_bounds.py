@@ -257,14 +257,15 @@ def test_bridge_four_by_transpositions():
 
 
 def test_knot_with_determinant_one():
-    # Schubert 1954: b(T(3,5)) = 3; KnotInfo 10_124 = T(3,5) has determinant 1, so the
-    # only 2-bridge candidate is the unknot, ruled out by the Jones polynomial
-    # (source: KnotInfo via database-knotinfo)
+    # Schubert 1954: b(T(3,5)) = 3; KnotInfo 10_124 = T(3,5) has determinant 1
+    # (source: KnotInfo via database-knotinfo). It is not alternating: its Alexander
+    # polynomial does not alternate in sign (Crowell 1959, Murasugi 1958), so it is not
+    # 2-bridge without listing any candidate
     row = knot("10_124")
     assert row.determinant == 1
     lb = bridge_lower_bound(_plat("10_124"))
     assert lb.value == 3 and lb.method == "not-2-bridge"
-    assert "unknot" in " ".join(lb.reasons)
+    assert "Crowell 1959" in " ".join(lb.reasons)
 
 
 def test_connected_sums():

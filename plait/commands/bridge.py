@@ -6,7 +6,13 @@ import argparse
 import math
 import sys
 
-from plait.cli import add_input_arguments, add_search_arguments, emit_json, load_input
+from plait.cli import (
+    add_bounds_time_argument,
+    add_input_arguments,
+    add_search_arguments,
+    emit_json,
+    load_input,
+)
 from plait.errors import EXIT_INTERRUPTED, InputError
 
 NAME = "bridge"
@@ -18,16 +24,19 @@ def configure(p: argparse.ArgumentParser) -> None:
     add_input_arguments(p)
     add_search_arguments(p, steps_help="search step budget (0: bounds only); reproducible "
                                        "with --seed")
+    add_bounds_time_argument(p)
 
 
 def run(args: argparse.Namespace) -> int:
     from plait.bridge import bridge_report
+    from plait.scoring.bounds import check_budget
 
     if args.time is not None and not math.isfinite(args.time):
         raise InputError(f"--time must be a finite number of seconds, got {args.time}")
+    budget = check_budget(args.bounds_time, "--bounds-time")
     pres = load_input(args)
     rep = bridge_report(pres, time=args.time, steps=args.steps, seed=args.seed,
-                        run_dir=args.run_dir, quiet=args.quiet or args.json)
+                        run_dir=args.run_dir, quiet=args.quiet or args.json, budget=budget)
     if args.json:
         emit_json(rep.to_json())
     else:

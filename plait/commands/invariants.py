@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 from fractions import Fraction
 
-from plait.cli import add_input_arguments, emit_json, load_input
+from plait.cli import add_bounds_time_argument, add_input_arguments, emit_json, load_input
 from plait.convert import to_plat
 from plait.word import PlatWord
 
@@ -17,6 +17,7 @@ ORDER = 20
 def configure(p: argparse.ArgumentParser) -> None:
     add_input_arguments(p)
     p.add_argument("--json", action="store_true", help="print one JSON object")
+    add_bounds_time_argument(p)
 
 
 def _pairs(poly: dict) -> list[list]:
@@ -51,7 +52,7 @@ def _poly_text(poly: dict, var: str = "t") -> str:
     return text
 
 
-def invariants_report(plat: PlatWord) -> dict:
+def invariants_report(plat: PlatWord, budget: float | None = None) -> dict:
     """The JSON object printed by ``plait invariants --json`` for a plat.
 
     Keys: ``jones`` and ``alexander`` (lists of ``[exponent, coefficient]`` sorted by
@@ -73,13 +74,16 @@ def invariants_report(plat: PlatWord) -> dict:
     if plat.components > 1:
         out["linking"] = linking_matrix(plat)
     out["plat"] = {"strands": plat.strands, "bridges": plat.bridges, "length": plat.length}
-    out["bridge_lower_bound"] = bridge_lower_bound(plat).to_dict()
+    out["bridge_lower_bound"] = bridge_lower_bound(plat, budget).to_dict()
     return out
 
 
 def run(args: argparse.Namespace) -> int:
+    from plait.scoring.bounds import check_budget
+
+    budget = check_budget(args.bounds_time, "--bounds-time")
     plat = to_plat(load_input(args))
-    rep = invariants_report(plat)
+    rep = invariants_report(plat, budget)
     if args.json:
         emit_json(rep)
         return 0
