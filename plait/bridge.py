@@ -94,7 +94,7 @@ def _diagram_bound(pd: PDCode, time_limit: float, what: str):
 def bridge_report(pres: Presentation, *, time: float | None = None, steps: int | None = None,
                   seed: int = 0, run_dir=None, quiet: bool = True,
                   wirtinger_time: float = 10.0, handle_signals: bool = True,
-                  runs_root=None) -> BridgeReport:
+                  runs_root=None, hunt: float | None = None, hunt_dir=None) -> BridgeReport:
     """Estimate the bridge number of a link: convert, search, and bound from both sides.
 
     Upper bounds: the plat built from the input diagram's Wirtinger coloring (a PD code,
@@ -110,6 +110,10 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
         Passed to :func:`plait.search.reduce` (``steps=0`` skips the search moves).
     wirtinger_time : float
         Seconds for each Wirtinger solve.
+    hunt : float, optional
+        Seconds for a long search on both sides when the bounds differ
+        (:func:`plait.search.hunt.hunt_report`); checkpointed in ``hunt_dir`` (default:
+        ``hunt`` inside the run folder), where a later call continues it.
 
     Returns
     -------
@@ -158,7 +162,16 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
     lower = res.lower
     if lower > upper:  # pragma: no cover - would be a contradiction between theorems
         raise AssertionError(f"lower bound {lower} exceeds upper bound {upper}")
-    return BridgeReport(lower, upper, list(res.reasons), upper_reasons, best, wirt, search)
+    rep = BridgeReport(lower, upper, list(res.reasons), upper_reasons, best, wirt, search)
+    if hunt:
+        from pathlib import Path
+
+        from plait.search.hunt import hunt_report
+
+        hdir = Path(hunt_dir) if hunt_dir is not None else Path(res.run_dir) / "hunt"
+        hunt_report(rep, pres, seconds=hunt, state_dir=hdir, seed=seed,
+                    handle_signals=handle_signals)
+    return rep
 
 
 def _pd_or_none(plat: PlatWord) -> PDCode | None:

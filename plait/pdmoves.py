@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import random
 from dataclasses import dataclass
+from functools import lru_cache
 
 from plait.errors import InputError
 from plait.pd import PDCode, pd_components, validate_pd
@@ -85,6 +86,11 @@ def _other(where, j: int, s: int, cs) -> tuple[int, int]:
 def faces(pd: PDCode) -> list[list[tuple[int, int]]]:
     """Faces of the diagram, each the cyclic list of its sides (leaving occurrences),
     walked with the face on the left."""
+    return [list(f) for f in _faces(pd)]
+
+
+@lru_cache(maxsize=256)
+def _faces(pd: PDCode) -> tuple[tuple[tuple[int, int], ...], ...]:
     cs = pd.crossings
     where = _where(cs)
     seen: set[tuple[int, int]] = set()
@@ -100,8 +106,8 @@ def faces(pd: PDCode) -> list[list[tuple[int, int]]]:
                 face.append(cur)
                 j2, s2 = _other(where, cur[0], cur[1], cs)
                 cur = (j2, (s2 - 1) % 4)
-            out.append(face)
-    return out
+            out.append(tuple(face))
+    return tuple(out)
 
 
 def relabel(cs) -> PDCode:
@@ -190,7 +196,7 @@ def _r2_add(pd: PDCode, j1: int, s1: int, j2: int, s2: int, over: int) -> list:
     cs = [list(c) for c in pd.crossings]
     role = occurrence_roles(pd)
     where = _where(cs)
-    face = next((f for f in faces(pd) if (j1, s1) in f), None)
+    face = next((f for f in _faces(pd) if (j1, s1) in f), None)
     if face is None or (j2, s2) not in face or (j1, s1) == (j2, s2):
         raise InputError("pd move r2+: the two sides are not distinct sides of one face")
     e, f = cs[j1][s1], cs[j2][s2]
@@ -222,7 +228,7 @@ def _r2_add(pd: PDCode, j1: int, s1: int, j2: int, s2: int, over: int) -> list:
 
 def _bigon(pd: PDCode, j: int, s: int):
     cs = pd.crossings
-    face = next((f for f in faces(pd) if (j, s) in f), None)
+    face = next((f for f in _faces(pd) if (j, s) in f), None)
     if face is None or len(face) != 2:
         return None
     (x, xo), (y, yo) = face if face[0] == (j, s) else face[::-1]
@@ -258,11 +264,11 @@ def _triangle(pd: PDCode, j: int, s: int):
     # the triangle face of side (j, s), walked A -> B -> C (counterclockwise), with the
     # slots of its inner and outer edges at each corner; None when not an R3 triangle
     cs = pd.crossings
-    face = next((f for f in faces(pd) if (j, s) in f), None)
+    face = next((f for f in _faces(pd) if (j, s) in f), None)
     if face is None or len(face) != 3:
         return None
     k = face.index((j, s))
-    (A, sa), (B, sb), (C, sc) = face[k], face[(k + 1) % 3], face[(k + 2) % 3]
+    (A, sa), (B, sb), (C, _sc) = face[k], face[(k + 1) % 3], face[(k + 2) % 3]
     if len({A, B, C}) != 3:
         return None
     where = _where(cs)
@@ -363,7 +369,7 @@ def pd_moves(pd: PDCode, kinds=PD_MOVE_KINDS) -> list[PDMove]:
     edge; ``r2+`` on ordered pairs of distinct edges of each face)."""
     cs = pd.crossings
     out: list[PDMove] = []
-    fs = faces(pd)
+    fs = _faces(pd)
     if "r1-" in kinds:
         for j, c in enumerate(cs):
             if any(c[s] == c[(s + 1) % 4] for s in range(4)):

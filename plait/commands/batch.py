@@ -3,8 +3,10 @@
 from __future__ import annotations
 
 import argparse
+import math
 import sys
 
+from plait.errors import InputError
 from plait.search.batch import format_summary, parse_shard, run_batch
 
 NAME = "batch"
@@ -27,6 +29,8 @@ def configure(p: argparse.ArgumentParser) -> None:
     p.add_argument("--strategy", metavar="NAME", help="search strategy (default auto)")
     p.add_argument("--bridge", action="store_true",
                    help="run the bridge-number report instead of the plain reduction")
+    p.add_argument("--hunt", type=float, metavar="SECONDS",
+                   help="with --bridge: seconds per item for the hunt (plait bridge --hunt)")
     p.add_argument("--workers", type=int, metavar="N",
                    help="worker processes on this machine (default: number of cores)")
     p.add_argument("--shard", metavar="K/N",
@@ -40,10 +44,16 @@ def configure(p: argparse.ArgumentParser) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
+    if args.hunt is not None and not args.bridge:
+        raise InputError("--hunt needs --bridge")
+    if args.hunt is not None and not (args.hunt > 0 and math.isfinite(args.hunt)):
+        raise InputError(f"--hunt must be a positive, finite number of seconds, got {args.hunt}")
+    opts = None if args.hunt is None else {"hunt": args.hunt}
     outcome = run_batch(args.file, args.out, seed=args.seed, steps=args.steps, time=args.time,
                         strategy=args.strategy, bridge=args.bridge or None,
                         workers=args.workers, shard=parse_shard(args.shard),
-                        resume=args.resume, dask=args.dask, quiet=args.quiet)
+                        resume=args.resume, dask=args.dask, quiet=args.quiet,
+                        search_options=opts)
     s = outcome.summary
     title = f"batch {outcome.out}"
     if outcome.written == 0 and s["complete"]:
