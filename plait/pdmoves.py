@@ -15,6 +15,7 @@ __all__ = [
     "PD_MOVE_KINDS",
     "faces",
     "relabel",
+    "canonical_key",
     "apply_pd_move",
     "pd_moves",
     "random_pd_move",
@@ -125,6 +126,38 @@ def relabel(cs) -> PDCode:
         for x in comp:
             new[x] = len(new) + 1
     return PDCode(tuple(tuple(new[x] for x in c) for c in pd.crossings))
+
+
+def canonical_key(pd: PDCode) -> tuple:
+    """A key equal for two PD codes exactly when they differ by a renaming of edges that
+    keeps the orientation and a reordering of crossings (a diagram isomorphism fixing the
+    plane's orientation and the strands' directions).
+
+    Tries every starting edge of the first component, numbers edges along the
+    orientation (components in order of their first crossing met), and keeps the least
+    sorted crossing list. Meant for knots and small links; cost is quadratic in size.
+    """
+    comps = pd_components(pd)
+    if not comps:
+        return ()
+    nxt: dict[int, int] = {}
+    for comp in comps:
+        for i, x in enumerate(comp):
+            nxt[x] = comp[(i + 1) % len(comp)]
+    best = None
+    for x0 in comps[0]:
+        new: dict[int, int] = {}
+        y = x0
+        while y not in new:
+            new[y] = len(new) + 1
+            y = nxt[y]
+        for comp in comps[1:]:  # further components in their listed order
+            for z in comp:
+                new.setdefault(z, len(new) + 1)
+        key = tuple(sorted(tuple(new[v] for v in c) for c in pd.crossings))
+        if best is None or key < best:
+            best = key
+    return best
 
 
 def _splice(cs, gone: set[int]) -> list[list[int]] | None:

@@ -16,7 +16,7 @@ from plait.atomic import write_json_atomic
 from plait.errors import InputError, PlaitError
 from plait.pd import PDCode, plat_to_pd, validate_pd
 from plait.pdjones import pd_jones
-from plait.pdmoves import PDMove, apply_pd_move, random_pd_move, relabel
+from plait.pdmoves import PDMove, apply_pd_move, canonical_key, random_pd_move, relabel
 from plait.wirtinger import DiagramArcs, diagram_arcs, wirtinger_cpsat
 
 __all__ = [
@@ -91,29 +91,47 @@ def seed_deficit(pd: PDCode, k: int = 3, max_sets: int = 60_000) -> tuple[int, t
         return 0, tuple(range(m))
     touching = _closure_tables(arcs)
     one = [_closure(arcs, touching, 1 << a, full) for a in range(m)]
-    best, best_seeds = m, ()
-    exhaustive = math.comb(m, k) <= max_sets
+    best = [m + 1, ()]
+
+    def left(mask: int) -> int:
+        return m - bin(mask).count("1")
+
+    def rec(first: int, depth: int, mask: int, chosen: tuple) -> bool:
+        # every seed set extending `chosen` with arcs >= first; True when one colors all
+        if depth == 0:
+            if left(mask) < best[0]:
+                best[0], best[1] = left(mask), chosen
+            return best[0] == 0
+        for c in range(first, m):
+            if mask >> c & 1:
+                continue  # an arc already colored adds nothing as a seed
+            if rec(c + 1, depth - 1, _closure(arcs, touching, mask | one[c], full),
+                   chosen + (c,)):
+                return True
+        if left(mask) < best[0]:  # fewer seeds than k already do this well
+            best[0], best[1] = left(mask), chosen
+        return False
+
+    if math.comb(m, k) <= max_sets:
+        rec(0, k, 0, ())
+        return best[0], tuple(best[1])
+    # too many sets: every pair, extended greedily by the best single arc each time
     for a, b in combinations(range(m), 2):
-        two = _closure(arcs, touching, one[a] | one[b], full)
-        if k == 2:
-            left = m - bin(two).count("1")
-            if left < best:
-                best, best_seeds = left, (a, b)
-            continue
-        cands = range(b + 1, m) if exhaustive else range(m)
-        for c in cands:
-            if two >> c & 1:
-                continue
-            left = m - bin(_closure(arcs, touching, two | one[c], full)).count("1")
-            if left < best:
-                best, best_seeds = left, tuple(sorted((a, b, c)))
-                if best == 0:
-                    return 0, best_seeds
-    return best, best_seeds
+        mask, chosen = _closure(arcs, touching, one[a] | one[b], full), (a, b)
+        for _ in range(k - 2):
+            c = max(range(m), key=lambda c: bin(_closure(arcs, touching, mask | one[c],
+                                                           full)).count("1"))
+            mask, chosen = _closure(arcs, touching, mask | one[c], full), chosen + (c,)
+        if left(mask) < best[0]:
+            best[0], best[1] = left(mask), tuple(sorted(chosen))
+            if best[0] == 0:
+                break
+    return best[0], tuple(best[1])
 
 
 def _key(pd: PDCode) -> str:
-    return hashlib.sha1(str(pd).encode()).hexdigest()[:16]
+    # diagrams equal up to relabelling share a key
+    return hashlib.sha1(str(canonical_key(pd)).encode()).hexdigest()[:16]
 
 
 @dataclass
@@ -181,7 +199,7 @@ def _plat_step(pd: PDCode, rng: random.Random, walk: int):
 def hunt(pd: PDCode, *, seconds: float, state_dir=None, seed: int = 0, target: int = 3,
          max_extra: int = 8, frontier_size: int = 64, plat_every: int = 25,
          checkpoint_every: float = 10.0, handle_signals: bool = True,
-         quiet: bool = True) -> HuntResult:
+         evaluations: int | None = None) -> HuntResult:
     """Look for a diagram of the same knot with Wirtinger number at most ``target``.
 
     A best-first random search over diagrams: pick a frontier diagram (a tournament on
@@ -197,6 +215,8 @@ def hunt(pd: PDCode, *, seconds: float, state_dir=None, seed: int = 0, target: i
         The start diagram (a knot).
     seconds : float
         Budget over all sessions of this hunt (resumed hunts count earlier time).
+    evaluations : int, optional
+        Stop after scoring this many diagrams (all sessions): a reproducible budget.
     state_dir : path, optional
         Folder for ``hunt.json`` (checkpoint, written atomically) and ``proof.json``.
         A folder holding a checkpoint of the same start diagram continues it.
@@ -274,7 +294,7 @@ def hunt(pd: PDCode, *, seconds: float, state_dir=None, seed: int = 0, target: i
     try:
         while best[0] > 0:
             elapsed = base + time.monotonic() - t_start
-            if elapsed >= seconds:
+            if elapsed >= seconds or (evaluations is not None and evaluated >= evaluations):
                 break
             if stop["flag"]:
                 status = "interrupted"
