@@ -187,7 +187,7 @@ def _plat_step(pd: PDCode, rng: random.Random, walk: int):
     from plait.fromdiagram import diagram_to_plat
     from plait.moves.walk import random_walk
 
-    plat = diagram_to_plat(pd, time_limit=2.0, guard=False).plat
+    plat = diagram_to_plat(pd, time_limit=0.5, directions=1, guard=False).plat
     kinds = {"twist": 1.0, "swap": 1.0, "lthread": 1.0, "rthread": 1.0, "braid": 3.0,
              "commute": 1.0, "cancel": 2.0, "absorb": 1.0}
     end, _ = random_walk(plat, walk, rng.randrange(2**31), kinds=kinds)
@@ -197,7 +197,7 @@ def _plat_step(pd: PDCode, rng: random.Random, walk: int):
 
 
 def hunt(pd: PDCode, *, seconds: float, state_dir=None, seed: int = 0, target: int = 3,
-         max_extra: int = 8, frontier_size: int = 64, plat_every: int = 25,
+         max_extra: int = 8, frontier_size: int = 64, plat_every: int = 40,
          checkpoint_every: float = 10.0, handle_signals: bool = True,
          evaluations: int | None = None) -> HuntResult:
     """Look for a diagram of the same knot with Wirtinger number at most ``target``.
