@@ -43,8 +43,12 @@ __all__ = [
 #   r3   (j, s)              side (j, s) of a triangle face whose strand along that side is
 #                            over at both its crossings (or under at both): slide the strand
 #                            across the third crossing
-PD_MOVE_KINDS = ("r1+", "r1-", "r2+", "r2-", "r3")
-_ARITY = {"r1+": 4, "r1-": 1, "r2+": 5, "r2-": 2, "r3": 2}
+#   flype (j, s, r1, r2)     crossing j whose slots s, s + 1 lead into a tangle T left by
+#                            the edges labelled r1 (beside slot s + 1) and r2 (beside slot
+#                            s): turn T over (a half turn about the axis through crossing j)
+#                            and move crossing j to T's other side
+PD_MOVE_KINDS = ("r1+", "r1-", "r2+", "r2-", "r3", "flype")
+_ARITY = {"r1+": 4, "r1-": 1, "r2+": 5, "r2-": 2, "r3": 2, "flype": 4}
 
 
 @dataclass(frozen=True)
@@ -356,6 +360,117 @@ def _r3(pd: PDCode, j: int, s: int) -> list:
     return cs
 
 
+def _flype_tangle(pd: PDCode, j: int, s: int, r1: int, r2: int):
+    # The tangle of a flype, or None. Picture crossing j with slot s pointing south-east
+    # (SE), s + 1 north-east (NE), s + 2 north-west (NW), s + 3 south-west (SW); edges m1
+    # (NE) and m2 (SE) run east into T, whose two other boundary edges are r1 (bordering
+    # the face north of j) and r2 (bordering the face south of j), both bordering one
+    # face X east of T.
+    cs = pd.crossings
+    where = _where(cs)
+    if r1 == r2 or r1 not in where or r2 not in where:
+        return None
+    m1, m2 = cs[j][(s + 1) % 4], cs[j][s]
+    if len({m1, m2, r1, r2}) < 4 or cs[j][(s + 2) % 4] in (m1, m2) \
+            or cs[j][(s + 3) % 4] in (m1, m2):
+        return None
+    fs = _faces(pd)
+    north = next(f for f in fs if (j, (s + 1) % 4) in f)
+    south = next(f for f in fs if (j, (s + 3) % 4) in f)
+    east = next(f for f in fs if (j, s) in f)
+
+    def labels(f):
+        return {cs[a][b] for a, b in f}
+
+    if r1 not in labels(north) or r2 not in labels(south):
+        return None
+    if not any(r1 in labels(f) and r2 in labels(f) for f in fs if f is not east):
+        return None
+    cut = {m1, m2, r1, r2}
+    t_start = _other(where, j, (s + 1) % 4, cs)[0]
+    if t_start == j:
+        return None
+    tangle = {t_start}
+    stack = [t_start]
+    while stack:
+        a = stack.pop()
+        for b in range(4):
+            x = cs[a][b]
+            if x in cut:
+                continue
+            o = _other(where, a, b, cs)[0]
+            if o == j:
+                return None  # T touches j by another edge
+            if o not in tangle:
+                tangle.add(o)
+                stack.append(o)
+    if len(tangle) < 2:
+        return None  # a single crossing turned over is itself
+    ends = {}
+    for x in (m1, m2, r1, r2):
+        inside = [o for o in where[x] if o[0] in tangle]
+        outside = [o for o in where[x] if o[0] not in tangle]
+        if len(inside) != 1 or len(outside) != 1:
+            return None
+        ends[x] = (inside[0], outside[0])
+    if ends[m1][1] != (j, (s + 1) % 4) or ends[m2][1] != (j, s):
+        return None
+    if ends[r1][1][0] == j or ends[r2][1][0] == j:
+        return None
+    # exactly four edges leave T
+    leaving = sum(1 for a in tangle for b in range(4)
+                  if _other(where, a, b, cs)[0] not in tangle)
+    if leaving != 4:
+        return None
+    for b in (2, 3):  # j's west edges must reach the rest of the diagram
+        o = _other(where, j, (s + b) % 4, cs)
+        if o[0] in tangle or o[0] == j:
+            return None
+    return tangle, ends, m1, m2
+
+
+def _flype(pd: PDCode, j: int, s: int, r1: int, r2: int) -> list:
+    got = _flype_tangle(pd, j, s, r1, r2)
+    if got is None:
+        raise InputError("pd move flype: no flype tangle at that crossing and those edges")
+    tangle, ends, m1, m2 = got
+    cs = [list(c) for c in pd.crossings]
+    role = occurrence_roles(pd)
+    where = _where(pd.crossings)
+    o_l1 = _other(where, j, (s + 2) % 4, pd.crossings)
+    o_l2 = _other(where, j, (s + 3) % 4, pd.crossings)
+    t_nw, t_sw = ends[m1][0], ends[m2][0]
+    t_ne, o_r1 = ends[r1]
+    t_se, o_r2 = ends[r2]
+    # turn T over: a half turn about the west-east axis mirrors T's drawing and swaps
+    # over and under; ring (a, b, c, d) becomes (b, a, d, c) or (d, c, b, a), read from
+    # the old over-strand's incoming end
+    for a in tangle:
+        w, x, y, z = cs[a]
+        cs[a] = [x, w, z, y] if role[(a, 1)] == 1 else [z, y, x, w]
+        # slots moved: old slot k is now at slot (1 - k) or (3 - k)
+    def moved(occ):
+        a, b = occ
+        return (a, (1 - b) % 4) if role[(a, 1)] == 1 else (a, (3 - b) % 4)
+
+    fresh = max(x for c in cs for x in c) + 1
+    A, B, C, D, E, F = range(fresh, fresh + 6)
+    # T's old south-west end now faces north-west and meets j's old north-west edge, etc.
+    for occ, lab in ((moved(t_sw), A), (o_l1, A), (moved(t_nw), B), (o_l2, B),
+                     (moved(t_se), C), (moved(t_ne), D), (o_r1, E), (o_r2, F)):
+        cs[occ[0]][occ[1]] = lab
+    # the crossing, now east of T, keeps its diagonal over: ring NE, NW, SW, SE
+    ring = [E, C, D, F]
+    under = (1, 3) if s % 2 == 0 else (0, 2)  # NW-SE is j's under-strand when s is even
+    for start in under:
+        cs[j] = list(_rot(ring, start))
+        try:
+            return list(relabel(cs).crossings)
+        except InputError:
+            continue
+    raise InputError("pd move flype: the flyped diagram is not a valid PD code")
+
+
 def apply_pd_move(pd: PDCode, move: PDMove) -> PDCode:
     """The diagram after one move, validated and relabelled (see :func:`relabel`).
 
@@ -392,6 +507,9 @@ def apply_pd_move(pd: PDCode, move: PDMove) -> PDCode:
     elif move.kind == "r3":
         occ(a[0], a[1])
         cs = _r3(pd, a[0], a[1])
+    elif move.kind == "flype":
+        occ(a[0], a[1])
+        cs = _flype(pd, a[0], a[1], a[2], a[3])
     else:
         raise InputError(f"pd move: unknown kind {move.kind!r}")
     return relabel(cs)
@@ -426,13 +544,22 @@ def pd_moves(pd: PDCode, kinds=PD_MOVE_KINDS) -> list[PDMove]:
                     if p != q and cs[p[0]][p[1]] != cs[q[0]][q[1]]:
                         for over in (0, 1):
                             out.append(PDMove("r2+", (*p, *q, over)))
+    if "flype" in kinds:
+        for j in range(len(cs)):
+            for s in range(4):
+                north = next(f for f in fs if (j, (s + 1) % 4) in f)
+                south = next(f for f in fs if (j, (s + 3) % 4) in f)
+                for r1 in sorted({cs[a][b] for a, b in north}):
+                    for r2 in sorted({cs[a][b] for a, b in south}):
+                        if _flype_tangle(pd, j, s, r1, r2) is not None:
+                            out.append(PDMove("flype", (j, s, r1, r2)))
     return out
 
 
 def random_pd_move(pd: PDCode, rng: random.Random, weights: dict[str, float] | None = None
                    ) -> PDMove | None:
     """A random applicable move: a kind drawn by ``weights``, then a move of that kind."""
-    w = weights or {"r1+": 0.2, "r1-": 1.0, "r2+": 1.0, "r2-": 1.5, "r3": 2.0}
+    w = weights or {"r1+": 0.2, "r1-": 1.0, "r2+": 1.0, "r2-": 1.5, "r3": 2.0, "flype": 1.5}
     kinds = [k for k in PD_MOVE_KINDS if w.get(k, 0) > 0]
     while kinds:
         k = rng.choices(kinds, [w[x] for x in kinds])[0]

@@ -27,8 +27,9 @@ SAMPLE = [k for k in knots(9) if k.name in
           ("3_1", "4_1", "5_2", "6_2", "7_4", "8_5", "8_19", "8_20", "9_35", "9_46")]
 
 # change of crossing number and of writhe of each kind (common practice: a kink adds one
-# crossing of either sign, a bigon two of opposite signs, a triangle keeps all signs)
-DELTA_N = {"r1+": 1, "r1-": -1, "r2+": 2, "r2-": -2, "r3": 0}
+# crossing of either sign, a bigon two of opposite signs, a triangle keeps all signs; a
+# flype keeps every crossing's sign, Tait's flyping conjecture, Menasco-Thistlethwaite 1993)
+DELTA_N = {"r1+": 1, "r1-": -1, "r2+": 2, "r2-": -2, "r3": 0, "flype": 0}
 
 
 def test_sample_present():
@@ -63,7 +64,7 @@ def test_every_move_keeps_the_knot(i, seed, kind):
     assert pd_jones(new) == k.jones  # source: KnotInfo via database-knotinfo
     assert new.length - pd.length == DELTA_N[kind]
     dw = sum(pd_crossing_signs(new)) - sum(pd_crossing_signs(pd))
-    if kind in ("r2+", "r2-", "r3"):
+    if kind in ("r2+", "r2-", "r3", "flype"):
         assert dw == 0
     else:
         assert abs(dw) == 1
@@ -120,3 +121,18 @@ def test_bad_moves_are_input_errors():
         PDMove.from_json(["r2+", 1, 2])
     with pytest.raises(InputError):
         PDMove.from_json(["flip", 1])
+
+
+def test_flypes_keep_crossing_number_and_jones():
+    # a flype is an isotopy that keeps the number of crossings (Menasco-Thistlethwaite
+    # 1993); Jones polynomials: source: KnotInfo via database-knotinfo
+    from kidata import knots as ks
+
+    done = 0
+    for k in ks(10)[::9]:
+        pd = validate_pd(k.pd)
+        for mv in pd_moves(pd, ("flype",))[:4]:
+            new = apply_pd_move(pd, mv)
+            assert new.length == pd.length and pd_jones(new) == k.jones
+            done += 1
+    assert done >= 20
