@@ -547,12 +547,29 @@ def pd_moves(pd: PDCode, kinds=PD_MOVE_KINDS) -> list[PDMove]:
     if "flype" in kinds:
         for j in range(len(cs)):
             for s in range(4):
-                north = next(f for f in fs if (j, (s + 1) % 4) in f)
-                south = next(f for f in fs if (j, (s + 3) % 4) in f)
-                for r1 in sorted({cs[a][b] for a, b in north}):
-                    for r2 in sorted({cs[a][b] for a, b in south}):
-                        if _flype_tangle(pd, j, s, r1, r2) is not None:
-                            out.append(PDMove("flype", (j, s, r1, r2)))
+                out += _flypes_at(pd, j, s)
+    return out
+
+
+def _flypes_at(pd: PDCode, j: int, s: int) -> list[PDMove]:
+    # flypes of crossing j towards slots s, s + 1: r1 on the north face, r2 on the south
+    # face, and both on one more face (east of the tangle)
+    cs = pd.crossings
+    fs = _faces(pd)
+    north = next(f for f in fs if (j, (s + 1) % 4) in f)
+    south = next(f for f in fs if (j, (s + 3) % 4) in f)
+    east = next(f for f in fs if (j, s) in f)
+    shared: set[tuple[int, int]] = set()
+    for f in fs:
+        if f is east:
+            continue
+        lab = {cs[a][b] for a, b in f}
+        shared.update((x, y) for x in lab for y in lab if x != y)
+    out = []
+    for r1 in sorted({cs[a][b] for a, b in north}):
+        for r2 in sorted({cs[a][b] for a, b in south}):
+            if (r1, r2) in shared and _flype_tangle(pd, j, s, r1, r2) is not None:
+                out.append(PDMove("flype", (j, s, r1, r2)))
     return out
 
 
@@ -563,6 +580,15 @@ def random_pd_move(pd: PDCode, rng: random.Random, weights: dict[str, float] | N
     kinds = [k for k in PD_MOVE_KINDS if w.get(k, 0) > 0]
     while kinds:
         k = rng.choices(kinds, [w[x] for x in kinds])[0]
+        if k == "flype":  # look at crossings in random order; stop at the first with one
+            places = [(j, s) for j in range(pd.length) for s in range(4)]
+            rng.shuffle(places)
+            for j, s in places:
+                options = _flypes_at(pd, j, s)
+                if options:
+                    return rng.choice(options)
+            kinds.remove(k)
+            continue
         options = pd_moves(pd, (k,))
         if options:
             return rng.choice(options)
