@@ -156,3 +156,26 @@ def test_cli_bridge_hunt_runs_and_reports(tmp_path, capsys):
 def test_cli_hunt_bad_options(args, tmp_path, capsys):
     out = _plait(capsys, *[a if a != "o" else str(tmp_path / "o") for a in args])
     assert out.returncode == 2 and out.stderr.count("\n") == 1, out.stderr
+
+
+def test_hunt_report_gives_the_lower_side_a_budget(monkeypatch, tmp_path):
+    # plumbing: a lower bound that takes a budget gets half the hunt's seconds, and a
+    # bound meeting the upper one certifies the report without a diagram hunt
+    import plait.scoring.bounds as bounds
+    from plait.bridge import BridgeReport
+    from plait.fromdiagram import diagram_to_plat
+    from plait.scoring.bounds import LowerBound
+    from plait.search.hunt import hunt_report
+
+    seen = {}
+
+    def fake(plat, budget):
+        seen["budget"] = budget
+        return LowerBound(4, ("a stronger obstruction (stand-in)",), "stand-in")
+
+    monkeypatch.setattr(bounds, "bridge_lower_bound", fake)
+    k, pd = scrambled("8_19", 1)
+    rep = BridgeReport(3, 4, ["(given)"], ["(given)"], diagram_to_plat(pd).plat, None, {})
+    out = hunt_report(rep, pd, seconds=8, state_dir=tmp_path, handle_signals=False)
+    assert seen["budget"] == 4 and rep.lower == 4 and rep.certified
+    assert "status" not in out and not (tmp_path / "hunt.json").exists()
