@@ -2,6 +2,8 @@
 
 Usage:
     python bench/open13.py tally bench/results/open13-*/results.jsonl
+    python bench/open13.py trim runs/open13-s0of5/results.jsonl \
+        bench/results/open13-s0of5/results.jsonl
     python bench/open13.py control --count 20 --seconds 10 [--out FILE]
 
 ``tally`` prints, over the rows of ``plait batch --bridge --hunt`` runs, how many
@@ -46,6 +48,35 @@ def tally(paths: list[str]) -> dict:
     }
 
 
+#: Row fields kept by ``trim`` (the rest, words and PD codes, is reproducible from the seed).
+KEEP = ("id", "line", "seed", "bridge_bounds", "result", "hunt", "status", "elapsed", "error")
+
+
+def trim(src: str, dst: str) -> int:
+    """Copy batch rows without their plat words and PD codes (committed results stay
+    small); the hunt's best diagram is kept only when it was found."""
+    from plait.atomic import write_text_atomic
+
+    out = []
+    with open(src, encoding="utf-8") as fh:
+        for line in fh:
+            if not line.strip():
+                continue
+            r = json.loads(line)
+            t = {k: r[k] for k in KEEP if k in r}
+            if isinstance(t.get("result"), dict):
+                t["result"] = {k: t["result"][k] for k in ("bridges", "length")
+                               if k in t["result"]}
+                if r.get("bridge_bounds", {}).get("upper", 4) <= 3:
+                    t["result"] = r["result"]  # a settled knot keeps its plat
+            h = t.get("hunt")
+            if isinstance(h, dict) and not h.get("found"):
+                t["hunt"] = {k: v for k, v in h.items() if k != "diagram"}
+            out.append(json.dumps(t, separators=(",", ":")))
+    write_text_atomic(dst, "".join(x + "\n" for x in out))
+    return len(out)
+
+
 def control(count: int, seconds: float, seed: int) -> dict:
     from database_knotinfo import link_list
 
@@ -76,6 +107,9 @@ def main(argv: list[str] | None = None) -> int:
     sub = ap.add_subparsers(dest="cmd", required=True)
     t = sub.add_parser("tally")
     t.add_argument("rows", nargs="+")
+    tr = sub.add_parser("trim")
+    tr.add_argument("src")
+    tr.add_argument("dst")
     c = sub.add_parser("control")
     c.add_argument("--count", type=int, default=20)
     c.add_argument("--seconds", type=float, default=10.0)
@@ -90,6 +124,10 @@ def main(argv: list[str] | None = None) -> int:
         print(f"time {s['seconds']} s ({s['hunt_seconds']} s hunting), "
               f"{s['diagrams']} diagrams scored")
         print(f"fewest arcs left by 3 seeds (knots per value): {s['best_deficit']}")
+        return 0
+    if a.cmd == "trim":
+        Path(a.dst).parent.mkdir(parents=True, exist_ok=True)
+        print(f"{a.dst}: {trim(a.src, a.dst)} rows")
         return 0
     s = control(a.count, a.seconds, a.seed)
     print(json.dumps(s))
