@@ -179,3 +179,20 @@ def test_hunt_report_gives_the_lower_side_a_budget(monkeypatch, tmp_path):
     out = hunt_report(rep, pd, seconds=8, state_dir=tmp_path, handle_signals=False)
     assert seen["budget"] == 4 and rep.lower == 4 and rep.certified
     assert "status" not in out and not (tmp_path / "hunt.json").exists()
+
+
+def test_batch_carries_the_hunt(tmp_path):
+    # `plait batch --bridge --hunt S` gives every item's report a hunt, whose checkpoint
+    # sits next to the item's run folder
+    from plait.search.batch import read_rows, run_batch
+
+    src = tmp_path / "one.jsonl"
+    with open("examples/open13.jsonl", encoding="utf-8") as fh:
+        src.write_text("".join(fh.readline() for _ in range(1)))
+    out = run_batch(src, tmp_path / "b", steps=10, bridge=True, workers=1, quiet=True,
+                    search_options={"hunt": 2.0})
+    assert out.summary["done"] == 1
+    (row,) = read_rows(tmp_path / "b" / "results.jsonl")
+    assert row["error"] is None and row["hunt"]["evaluated"] >= 1
+    assert row["hunt"]["state_dir"].endswith(".hunt")
+    assert any((tmp_path / "b" / "runs").glob("*.hunt/hunt.json"))
