@@ -100,7 +100,8 @@ def _diagram_bound(pd: PDCode, time_limit: float, what: str):
 def bridge_report(pres: Presentation, *, time: float | None = None, steps: int | None = None,
                   seed: int = 0, run_dir=None, quiet: bool = True,
                   wirtinger_time: float = 10.0, handle_signals: bool = True,
-                  runs_root=None, budget: float | None = None) -> BridgeReport:
+                  runs_root=None, budget: float | None = None,
+                  hunt: float | None = None, hunt_dir=None) -> BridgeReport:
     """Estimate the bridge number of a link: convert, search, and bound from both sides.
 
     Runs exactly the search of ``plait reduce`` (:func:`plait.search.reduce`, strategy
@@ -124,6 +125,10 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
         the start of the search (so that it stops once certified) and again on the best
         plat found (fewest bridges, then shortest), cached by the knot's fingerprint
         within the run: a knot's bounds are recomputed only on a strictly simpler plat.
+    hunt : float, optional
+        Seconds for a long search on both sides when the bounds differ
+        (:func:`plait.search.hunt.hunt_report`); checkpointed in ``hunt_dir`` (default:
+        ``hunt`` inside the run folder), where a later call continues it.
 
     Returns
     -------
@@ -196,6 +201,14 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
                            wirtinger_time=wirtinger_time, handle_signals=handle_signals,
                            runs_root=runs_root, budget=budget,
                            run_dir=search.get("run_dir") or None)
+    if hunt:
+        from pathlib import Path
+
+        from plait.search.hunt import hunt_report
+
+        hdir = Path(hunt_dir) if hunt_dir is not None else Path(res.run_dir) / "hunt"
+        hunt_report(rep, pres, seconds=hunt, state_dir=hdir, seed=seed,
+                    handle_signals=handle_signals)
     return rep
 
 

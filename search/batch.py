@@ -240,7 +240,7 @@ def _check_search_options(strategy: str | None, options: dict | None) -> None:
                          f"{', '.join(STRATEGY_NAMES)})")
     own = {"presentation", "strategy", "time", "steps", "seed", "run_dir", "quiet",
            "handle_signals"}
-    allowed = set(inspect.signature(reduce).parameters) - own
+    allowed = (set(inspect.signature(reduce).parameters) - own) | {"hunt"}  # hunt: --bridge
     for key in options or {}:
         if key not in allowed:
             raise InputError(f"search option {key!r} is not one of {', '.join(sorted(allowed))}")

@@ -60,8 +60,11 @@ def search_item(task: ItemTask) -> dict:
         # the report's diagram steps keep no checkpoint: an interrupted item starts again
         if _resumable(run_dir):
             _clear_folder(run_dir)
+        # a hunt (search option "hunt") keeps its checkpoint beside the run folder
+        hunt = (task.options or {}).get("hunt")
+        extra = {} if not hunt else {"hunt": hunt, "hunt_dir": f"{run_dir}.hunt"}
         res = _bridge_function()(pres, time=task.time, steps=task.steps, seed=task.seed,
-                                 run_dir=run_dir, quiet=True, handle_signals=False)
+                                 run_dir=run_dir, quiet=True, handle_signals=False, **extra)
         return res.to_json()
     if _resumable(run_dir):
         try:

@@ -3,8 +3,10 @@
 from __future__ import annotations
 
 import argparse
+import math
 import sys
 
+from plait.errors import InputError
 from plait.search.batch import run_batch
 from plait.search.batch_files import format_summary
 from plait.search.batch_shards import parse_shard
@@ -32,6 +34,8 @@ def configure(p: argparse.ArgumentParser) -> None:
     p.add_argument("--name", action="store_true",
                    help="also name each result from the KnotInfo tables (columns name, "
                         "name_mirror, name_certified, name_candidates; needs plait[tables])")
+    p.add_argument("--hunt", type=float, metavar="SECONDS",
+                   help="with --bridge: seconds per item for the hunt (plait bridge --hunt)")
     p.add_argument("--workers", type=int, metavar="N",
                    help="worker processes on this machine (default: number of cores)")
     p.add_argument("--shard", metavar="K/N",
@@ -45,6 +49,11 @@ def configure(p: argparse.ArgumentParser) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
+    if args.hunt is not None and not args.bridge:
+        raise InputError("--hunt needs --bridge")
+    if args.hunt is not None and not (args.hunt > 0 and math.isfinite(args.hunt)):
+        raise InputError(f"--hunt must be a positive, finite number of seconds, got {args.hunt}")
+    opts = None if args.hunt is None else {"hunt": args.hunt}
     extra = {}
     if args.name:
         from plait.names import load_table, named_search_item
@@ -54,7 +63,8 @@ def run(args: argparse.Namespace) -> int:
     outcome = run_batch(args.file, args.out, seed=args.seed, steps=args.steps, time=args.time,
                         strategy=args.strategy, bridge=args.bridge or None,
                         workers=args.workers, shard=parse_shard(args.shard),
-                        resume=args.resume, dask=args.dask, quiet=args.quiet, **extra)
+                        resume=args.resume, dask=args.dask, quiet=args.quiet,
+                        search_options=opts, **extra)
     s = outcome.summary
     title = f"batch {outcome.out}"
     if outcome.written == 0 and s["complete"]:

@@ -1,0 +1,142 @@
+"""The open 13-crossing entries: tally hunt batch rows, and run the index-4 control set.
+
+Usage:
+    python bench/open13.py tally bench/results/open13-*/results.jsonl
+    python bench/open13.py trim runs/open13-s0of5/results.jsonl \
+        bench/results/open13-s0of5/results.jsonl
+    python bench/open13.py control --count 20 --seconds 10 [--out FILE]
+
+``tally`` prints, over the rows of ``plait batch --bridge --hunt`` runs, how many
+entries were settled up (a 3-bridge plat), settled down (a lower bound of 4), are
+still open, and the time spent. ``control`` runs the same hunt on KnotInfo's knots of
+13 crossings whose bridge index the table gives as 4: a diagram with Wirtinger number
+3 there would contradict the table, so the expected count is zero.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+import time
+from collections import Counter
+from pathlib import Path
+
+sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
+
+
+def tally(paths: list[str]) -> dict:
+    rows = []
+    for p in paths:
+        with open(p, encoding="utf-8") as fh:
+            rows += [json.loads(line) for line in fh if line.strip()]
+    up = [r["id"] for r in rows if not r.get("error") and r["bridge_bounds"]["upper"] <= 3]
+    down = [r["id"] for r in rows if not r.get("error") and r["bridge_bounds"]["lower"] >= 4]
+    errors = [r["id"] for r in rows if r.get("error")]
+    hunts = [r.get("hunt") or {} for r in rows if not r.get("error")]
+    return {
+        "rows": len(rows),
+        "settled_up": up,
+        "settled_down": down,
+        "open": len(rows) - len(up) - len(down) - len(errors),
+        "errors": errors,
+        "seconds": round(sum(r.get("elapsed", 0) for r in rows), 1),
+        "hunt_seconds": round(sum(h.get("elapsed", 0) for h in hunts), 1),
+        "diagrams": sum(h.get("evaluated", 0) for h in hunts),
+        "best_deficit": dict(sorted(Counter(h.get("best_deficit") for h in hunts).items(),
+                                    key=lambda kv: (kv[0] is None, kv[0]))),
+    }
+
+
+#: Row fields kept by ``trim`` (the rest, words and PD codes, is reproducible from the seed).
+KEEP = ("id", "line", "seed", "bridge_bounds", "result", "hunt", "status", "elapsed", "error")
+
+
+def trim(src: str, dst: str) -> int:
+    """Copy batch rows without their plat words and PD codes (committed results stay
+    small); the hunt's best diagram is kept only when it was found."""
+    from plait.atomic import write_text_atomic
+
+    out = []
+    with open(src, encoding="utf-8") as fh:
+        for line in fh:
+            if not line.strip():
+                continue
+            r = json.loads(line)
+            t = {k: r[k] for k in KEEP if k in r}
+            if isinstance(t.get("result"), dict):
+                t["result"] = {k: t["result"][k] for k in ("bridges", "length")
+                               if k in t["result"]}
+                if r.get("bridge_bounds", {}).get("upper", 4) <= 3:
+                    t["result"] = r["result"]  # a settled knot keeps its plat
+            h = t.get("hunt")
+            if isinstance(h, dict) and not h.get("found"):
+                t["hunt"] = {k: v for k, v in h.items() if k != "diagram"}
+            out.append(json.dumps(t, separators=(",", ":")))
+    write_text_atomic(dst, "".join(x + "\n" for x in out))
+    return len(out)
+
+
+def control(count: int, seconds: float, seed: int) -> dict:
+    from database_knotinfo import link_list
+
+    from plait.diagrams.pd import validate_pd
+    from plait.search.hunt import hunt
+
+    rows = [r for r in link_list()
+            if r.get("crossing_number") == "13" and r.get("bridge_index") == "4"]
+    step = max(1, len(rows) // count)
+    sample = rows[::step][:count]
+    found, diagrams, deficits = [], 0, Counter()
+    t0 = time.monotonic()
+    for r in sample:
+        res = hunt(validate_pd(json.loads(r["pd_notation"])), seconds=seconds, seed=seed,
+                   handle_signals=False)
+        diagrams += res.evaluated
+        deficits[res.best_deficit] += 1
+        if res.found:
+            found.append(r["name"])
+    return {"index4_total": len(rows), "sampled": len(sample), "seconds_each": seconds,
+            "found_three_seeds": found, "diagrams": diagrams,
+            "best_deficit": dict(sorted(deficits.items())),
+            "wall": round(time.monotonic() - t0, 1)}
+
+
+def main(argv: list[str] | None = None) -> int:
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    sub = ap.add_subparsers(dest="cmd", required=True)
+    t = sub.add_parser("tally")
+    t.add_argument("rows", nargs="+")
+    tr = sub.add_parser("trim")
+    tr.add_argument("src")
+    tr.add_argument("dst")
+    c = sub.add_parser("control")
+    c.add_argument("--count", type=int, default=20)
+    c.add_argument("--seconds", type=float, default=10.0)
+    c.add_argument("--seed", type=int, default=0)
+    c.add_argument("--out")
+    a = ap.parse_args(argv)
+    if a.cmd == "tally":
+        s = tally(a.rows)
+        print(f"rows {s['rows']}: settled up {len(s['settled_up'])} {s['settled_up']}, "
+              f"settled down {len(s['settled_down'])} {s['settled_down']}, "
+              f"open {s['open']}, errors {len(s['errors'])}")
+        print(f"time {s['seconds']} s ({s['hunt_seconds']} s hunting), "
+              f"{s['diagrams']} diagrams scored")
+        print(f"fewest arcs left by 3 seeds (knots per value): {s['best_deficit']}")
+        return 0
+    if a.cmd == "trim":
+        Path(a.dst).parent.mkdir(parents=True, exist_ok=True)
+        print(f"{a.dst}: {trim(a.src, a.dst)} rows")
+        return 0
+    s = control(a.count, a.seconds, a.seed)
+    print(json.dumps(s))
+    if a.out:
+        from plait.atomic import write_json_atomic
+
+        write_json_atomic(a.out, s)
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
