@@ -471,8 +471,6 @@ def hunt_report(rep, pres, *, seconds: float, state_dir, seed: int = 0,
         The hunt's JSON (``HuntResult.to_json`` plus ``lower_budget``), also stored in
         ``rep.search["hunt"]``.
     """
-    import inspect
-
     from plait.diagrams.pd import PDCode as _PD
     from plait.scoring.bounds import bridge_lower_bound
     from plait.word import PlatWord
@@ -486,19 +484,15 @@ def hunt_report(rep, pres, *, seconds: float, state_dir, seed: int = 0,
         start = pres
     else:
         start = relabel(plat_to_pd(rep.result).crossings)
-    # lower side first when the bound takes a budget (the stronger obstructions do)
-    params = inspect.signature(bridge_lower_bound).parameters
-    if "budget" in params:
-        lb = bridge_lower_bound(rep.result, budget=seconds / 2)
-        seconds_up = seconds / 2
-        out["lower_budget"] = seconds / 2
-        if lb.value > rep.lower:
-            rep.lower = lb.value
-            rep.lower_reasons[:] = list(lb.reasons)
-    else:
-        seconds_up = seconds
-        out["lower_budget"] = 0
+    # lower side first: the stronger obstructions get half the seconds as their budget
+    lb = bridge_lower_bound(rep.result, budget=seconds / 2)
+    seconds_up = seconds / 2
+    out["lower_budget"] = seconds / 2
+    if lb.value > rep.lower:
+        rep.lower = lb.value
+        rep.lower_reasons[:] = list(lb.reasons)
     if rep.certified:
+        out["skipped"] = "certified by the lower bounds"
         rep.search["hunt"] = out
         return out
     res = hunt(start, seconds=seconds_up, state_dir=state_dir, seed=seed,
