@@ -461,8 +461,10 @@ def check_rank_proof(obj: object) -> RankProofCheck:
 
     Checks, with code independent of the search: the plat's Wirtinger relations at every
     crossing (labels pushed down the word from the bridges, conjugated by the over arc's
-    label with the crossing's sign) and at every cup; the image class (closure of the
-    bridges' labels under conjugation by them); and by brute force that no ``rank - 1``
+    label with the crossing's sign) and at every cup; or, for a homomorphism given on a PD
+    code (``pd``, ``pd_arcs``, ``pd_convention``; see :func:`pd_arcs`), the relation at
+    every crossing of the code with that crossing's sign; the image class (closure of the
+    labels under conjugation by them); and by brute force that no ``rank - 1``
     elements of the image class generate it, so that at least ``rank`` meridians are
     needed to generate the knot group.
 
