@@ -8,7 +8,8 @@ from collections.abc import Sequence
 from dataclasses import dataclass
 from itertools import combinations
 
-__all__ = ["FORMAT", "RankProofCheck", "check_rank_proof", "load_rank_proof", "is_rank_proof"]
+__all__ = ["FORMAT", "RankProofCheck", "check_rank_proof", "load_rank_proof", "is_rank_proof",
+           "pd_arcs"]
 
 #: The format tag of a proof file.
 FORMAT = "plait-rank-proof/1"
@@ -165,9 +166,21 @@ def _closure(table: list[list[int]], xs: Sequence[int]) -> set[int]:
     return seen
 
 
-def _check(obj: object) -> RankProofCheck:
-    if not isinstance(obj, dict) or obj.get("format") != FORMAT:
-        raise _Bad(f"format tag is not {FORMAT!r}")
+def _parse_group(obj: dict, sample: object) -> _Group:
+    grp = obj.get("group")
+    if not isinstance(grp, dict) or grp.get("kind") not in ("permutation", "matrix"):
+        raise _Bad("group kind must be 'permutation' or 'matrix'")
+    if grp["kind"] == "permutation":
+        return _Group("permutation", 0, len(sample) if isinstance(sample, list) else 0)
+    p, size = grp.get("modulus"), grp.get("dimension")
+    if not isinstance(p, int) or p < 2 or any(p % q == 0 for q in range(2, p)) \
+            or not isinstance(size, int) or size < 1:
+        raise _Bad("a matrix group needs a prime modulus and a dimension")
+    return _Group("matrix", p, size)
+
+
+def _check_plat(obj: dict, G: _Group | None) -> tuple[_Group, list[tuple], int]:
+    # the plat's homomorphism: returns the group, the bridges' labels, the crossing count
     plat = obj.get("plat")
     if not isinstance(plat, dict):
         raise _Bad("no plat")
@@ -175,27 +188,14 @@ def _check(obj: object) -> RankProofCheck:
     if not isinstance(strands, int) or strands < 2 or strands % 2 or not isinstance(word, list) \
             or not all(isinstance(g, int) and 0 < abs(g) < strands for g in word):
         raise _Bad("the plat is not a braid word on an even number of strands")
-    grp = obj.get("group")
-    if not isinstance(grp, dict) or grp.get("kind") not in ("permutation", "matrix"):
-        raise _Bad("group kind must be 'permutation' or 'matrix'")
     caps_obj = obj.get("caps")
     if not isinstance(caps_obj, list) or len(caps_obj) != strands // 2 or not caps_obj:
         raise _Bad(f"caps must list {strands // 2} elements, one per bridge")
-    if grp["kind"] == "permutation":
-        size = len(caps_obj[0]) if isinstance(caps_obj[0], list) else 0
-        G = _Group("permutation", 0, size)
-    else:
-        p, size = grp.get("modulus"), grp.get("dimension")
-        if not isinstance(p, int) or p < 2 or any(p % q == 0 for q in range(2, p)) \
-                or not isinstance(size, int) or size < 1:
-            raise _Bad("a matrix group needs a prime modulus and a dimension")
-        G = _Group("matrix", p, size)
+    if G is None:
+        G = _parse_group(obj, caps_obj[0])
     caps = [G.parse(c) for c in caps_obj]
-    rank = obj.get("rank")
-    if not isinstance(rank, int) or rank < 1:
-        raise _Bad("rank must be a positive integer")
 
-    # 1. Wirtinger relations: push the bridges' labels down the word, one crossing at a
+    # Wirtinger relations: push the bridges' labels down the word, one crossing at a
     # time, and require the two ends of every cup to agree
     d = _strand_directions(strands, word)
     at = list(range(strands))
@@ -215,23 +215,149 @@ def _check(obj: object) -> RankProofCheck:
     for i in range(0, strands, 2):
         if label[i] != label[i + 1]:
             raise _Bad(f"cup {i // 2 + 1}: the two ends carry different labels")
+    return G, caps, len(word)
 
-    # 2. the image class: every meridian image is a conjugate of a bridge's by the image
-    # group G' = <caps>; its closure under conjugation by the caps is the union of the
-    # G'-orbits of the caps
+
+def pd_arcs(pd: object) -> tuple[list[list[int]], list[tuple[int, int, int, int]]]:
+    """Arcs and crossing data of a PD code, derived from the code alone.
+
+    Convention (the trade's, KnotInfo's ``pd_notation``): crossing ``[i, j, k, l]`` lists
+    its four edges counterclockwise from the incoming under edge ``i``; ``k`` is the
+    outgoing under edge, ``j`` and ``l`` the over edges. An arc is a maximal over-strand:
+    the classes of edges under the relation "``j`` and ``l`` of one crossing".
+
+    Returns
+    -------
+    arcs : list of list of int
+        The edge labels of each arc, sorted; arcs are ordered by their least label (the
+        order of the proof's ``pd_arcs``).
+    crossings : list of (over, incoming, outgoing, sign)
+        Arc indices at every crossing and its sign: +1 when the over strand runs from
+        ``l`` to ``j`` (right-handed), -1 otherwise.
+
+    Raises ``ValueError`` when the code is not a connected planar diagram of oriented
+    strands each passing under something.
+    """
+    if not isinstance(pd, list) or not pd or not all(
+            isinstance(c, list) and len(c) == 4
+            and all(isinstance(x, int) and not isinstance(x, bool) for x in c) for c in pd):
+        raise ValueError("pd must be a non-empty list of four-integer crossings")
+    n = len(pd)
+    # occ[label] = the (crossing, slot) positions where the edge ends
+    occ: dict[int, list[tuple[int, int]]] = {}
+    for c, row in enumerate(pd):
+        for s, x in enumerate(row):
+            occ.setdefault(x, []).append((c, s))
+    if any(len(v) != 2 for v in occ.values()):
+        raise ValueError("every edge label of the pd must appear exactly twice")
+
+    def other(c: int, s: int) -> tuple[int, int]:
+        a, b = occ[pd[c][s]]
+        return b if a == (c, s) else a
+
+    # planarity: the faces of the rotation system (counterclockwise slot order) must
+    # satisfy Euler's formula V - E + F = 2 for the connected diagram
+    seen: set[tuple[int, int]] = set()
+    faces = 0
+    for start in ((c, s) for c in range(n) for s in range(4)):
+        if start in seen:
+            continue
+        faces += 1
+        cur = start
+        while cur not in seen:
+            seen.add(cur)
+            c, s = other(*cur)
+            cur = (c, (s + 1) % 4)
+    comp = list(range(n))
+
+    def root(a: int) -> int:
+        while comp[a] != a:
+            comp[a] = comp[comp[a]]
+            a = comp[a]
+        return a
+
+    for v in occ.values():
+        comp[root(v[0][0])] = root(v[1][0])
+    if len({root(c) for c in range(n)}) != 1 or n - 2 * n + faces != 2:
+        raise ValueError("the pd is not a connected planar diagram")
+    # role[(c, s)] = +1 when the edge at slot s enters crossing c, -1 when it leaves:
+    # slot 0 enters, slot 2 leaves, the two ends of an edge and the two over slots of a
+    # crossing have opposite roles
+    role: dict[tuple[int, int], int] = {}
+    stack: list[tuple[int, int]] = []
+    for c in range(n):
+        role[(c, 0)], role[(c, 2)] = 1, -1
+        stack += [(c, 0), (c, 2)]
+    while stack:
+        c, s = stack.pop()
+        for nxt in (other(c, s),) + (((c, 4 - s),) if s in (1, 3) else ()):
+            r = -role[(c, s)]
+            if role.get(nxt, r) != r:
+                raise ValueError(f"pd: edge {pd[nxt[0]][nxt[1]]} is oriented inconsistently")
+            if nxt not in role:
+                role[nxt] = r
+                stack.append(nxt)
+    if len(role) != 4 * n:
+        raise ValueError("pd: a component never passes under anything")
+    # arcs: union of the two over edges of every crossing
+    up = {x: x for x in occ}
+
+    def find(x: int) -> int:
+        while up[x] != x:
+            up[x] = up[up[x]]
+            x = up[x]
+        return x
+
+    for row in pd:
+        a, b = find(row[1]), find(row[3])
+        up[max(a, b)] = min(a, b)
+    groups: dict[int, list[int]] = {}
+    for x in sorted(occ):
+        groups.setdefault(find(x), []).append(x)
+    arcs = sorted(groups.values())
+    arc_of = {x: i for i, a in enumerate(arcs) for x in a}
+    crossings = [(arc_of[row[1]], arc_of[row[0]], arc_of[row[2]],
+                  1 if role[(c, 3)] == 1 else -1) for c, row in enumerate(pd)]
+    return arcs, crossings
+
+
+def _check_pd(obj: dict, G: _Group | None) -> tuple[_Group, list[tuple], int]:
+    # the PD code's homomorphism: returns the group, the arcs' images, the crossing count
+    try:
+        arcs, crossings = pd_arcs(obj.get("pd"))
+    except ValueError as exc:
+        raise _Bad(str(exc)) from None
+    images = obj.get("pd_arcs")
+    if not isinstance(images, list) or len(images) != len(arcs):
+        raise _Bad(f"pd_arcs must list {len(arcs)} elements, one per arc of the pd")
+    conv = obj.get("pd_convention", 1)
+    if conv not in (1, -1) or isinstance(conv, bool):
+        raise _Bad("pd_convention must be 1 or -1")
+    if G is None:
+        G = _parse_group(obj, images[0])
+    x = [G.parse(a) for a in images]
+    for c, (o, i, k, sign) in enumerate(crossings):
+        # Wirtinger: x_k = x_o^e x_i x_o^-e with e the crossing's sign (times the global
+        # convention: -1 gives the mirror's presentation, an isomorphic group)
+        if G.conj(x[o], x[i], sign * conv) != x[k]:
+            raise _Bad(f"pd crossing {c + 1} {obj['pd'][c]}: the Wirtinger relation fails")
+    return G, x, len(crossings)
+
+
+def _image_class(G: _Group, labels: list[tuple], limit: int) -> tuple[list[tuple], dict]:
+    # every meridian image is a conjugate of a label by the image group G' = <labels>;
+    # its closure under conjugation by the labels is the union of their G'-orbits
     elems: list[tuple] = []
     index: dict[tuple, int] = {}
-    for c in caps:
+    for c in labels:
         if c not in index:
             index[c] = len(elems)
             elems.append(c)
-    cap_inv = [G.inv(c) for c in set(caps)]
-    cap_set = list(set(caps))
+    gens = list(dict.fromkeys(labels))
+    gen_inv = [G.inv(c) for c in gens]
     i = 0
-    limit = int(obj.get("image_class_size", 0)) if isinstance(obj.get("image_class_size"), int) \
-        else 0
     while i < len(elems):
-        for c, ci in zip(cap_set, cap_inv, strict=True):
+        for c, ci in zip(gens, gen_inv, strict=True):
             y = G.mul(G.mul(c, elems[i]), ci)
             if y not in index:
                 index[y] = len(elems)
@@ -239,14 +365,23 @@ def _check(obj: object) -> RankProofCheck:
                 if limit and len(elems) > limit:
                     raise _Bad(f"the image class has more than the {limit} elements stated")
         i += 1
-    m = len(elems)
-    if limit and m != limit:
-        raise _Bad(f"the image class has {m} elements, not {limit}")
-    table = [[index[G.conj(a, b)] for b in elems] for a in elems]
+    if limit and len(elems) != limit:
+        raise _Bad(f"the image class has {len(elems)} elements, not {limit}")
+    return elems, index
 
-    # 3. no r - 1 elements generate: an inner automorphism maps a generating set to one
-    # containing the least element of some orbit of the inner automorphism group, so it is
-    # enough to try the sets that contain one such element
+
+def _no_small_generating_set(G: _Group, elems: list[tuple], index: dict, rank: int,
+                             gens: object) -> bool:
+    # raises unless no rank - 1 elements of the class generate it; returns whether the
+    # stated generators (if any) generate it
+    m = len(elems)
+    inv = [G.inv(a) for a in elems]
+    table = [[index[G.mul(G.mul(a, b), ai)] for b in elems]
+             for a, ai in zip(elems, inv, strict=True)]
+
+    # an inner automorphism maps a generating set to one containing the least element of
+    # some orbit of the inner automorphism group, so it is enough to try the sets that
+    # contain one such element
     parent = list(range(m))
 
     def find(a: int) -> int:
@@ -270,17 +405,51 @@ def _check(obj: object) -> RankProofCheck:
             if k >= 1 and len(_closure(table, (x,) + rest)) == m:
                 raise _Bad(f"{k} elements generate the image class: "
                            f"{[list(elems[j]) for j in (x,) + rest]!s:.120}")
-    exact = False
-    gens = obj.get("generators")
-    if gens is not None:
-        gl = [G.parse(g) for g in gens] if isinstance(gens, list) else None
-        if gl is None or len(gl) != rank or any(g not in index for g in gl):
-            raise _Bad("generators must be rank elements of the image class")
-        if len(_closure(table, [index[g] for g in gl])) != m:
-            raise _Bad("the stated generators do not generate the image class")
-        exact = True
-    msg = (f"valid: the bridges' meridian images satisfy all {len(word)} crossing relations "
-           f"and every cup; their {m} conjugates are not generated by {k} of them"
+    if gens is None:
+        return False
+    gl = [G.parse(g) for g in gens] if isinstance(gens, list) else None
+    if gl is None or len(gl) != rank or any(g not in index for g in gl):
+        raise _Bad("generators must be rank elements of the image class")
+    if len(_closure(table, [index[g] for g in gl])) != m:
+        raise _Bad("the stated generators do not generate the image class")
+    return True
+
+
+def _check(obj: object) -> RankProofCheck:
+    if not isinstance(obj, dict) or obj.get("format") != FORMAT:
+        raise _Bad(f"format tag is not {FORMAT!r}")
+    rank = obj.get("rank")
+    if not isinstance(rank, int) or rank < 1:
+        raise _Bad("rank must be a positive integer")
+    limit = obj.get("image_class_size", 0)
+    limit = limit if isinstance(limit, int) and not isinstance(limit, bool) else 0
+    # each homomorphism given (on the plat, on the PD code, or both) is checked in full;
+    # the rank argument is run once per distinct image class
+    homs: list[tuple[str, list[tuple], int]] = []
+    G: _Group | None = None
+    if "pd" in obj:
+        G, labels, n = _check_pd(obj, G)
+        homs.append(("pd code", labels, n))
+    if "plat" in obj or not homs:
+        G, labels, n = _check_plat(obj, G)
+        homs.append(("plat", labels, n))
+    assert G is not None
+    done: list[frozenset] = []
+    exact = True
+    m = 0
+    for _what, labels, _n in homs:
+        elems, index = _image_class(G, labels, limit)
+        m = m or len(elems)
+        key = frozenset(elems)
+        if key in done:
+            continue
+        done.append(key)
+        exact = _no_small_generating_set(G, elems, index, rank, obj.get("generators")) \
+            and exact
+    k = rank - 1
+    parts = " and ".join(f"the {w}'s labels satisfy all {n} crossing relations"
+                         + (" and every cup" if w == "plat" else "") for w, _l, n in homs)
+    msg = (f"valid: {parts}; their {m} conjugates are not generated by {k} of them"
            + (f" ({rank} do generate)" if exact else "")
            + f", so the meridional rank and the bridge number are ≥ {rank} "
            "(Boileau–Zieschang 1985)")
@@ -292,8 +461,10 @@ def check_rank_proof(obj: object) -> RankProofCheck:
 
     Checks, with code independent of the search: the plat's Wirtinger relations at every
     crossing (labels pushed down the word from the bridges, conjugated by the over arc's
-    label with the crossing's sign) and at every cup; the image class (closure of the
-    bridges' labels under conjugation by them); and by brute force that no ``rank - 1``
+    label with the crossing's sign) and at every cup; or, for a homomorphism given on a PD
+    code (``pd``, ``pd_arcs``, ``pd_convention``; see :func:`pd_arcs`), the relation at
+    every crossing of the code with that crossing's sign; the image class (closure of the
+    labels under conjugation by them); and by brute force that no ``rank - 1``
     elements of the image class generate it, so that at least ``rank`` meridians are
     needed to generate the knot group.
 
