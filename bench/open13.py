@@ -5,12 +5,14 @@ Usage:
     python bench/open13.py trim runs/open13-s0of5/results.jsonl \
         bench/results/open13-s0of5/results.jsonl
     python bench/open13.py control --count 20 --seconds 10 [--out FILE]
+    python bench/open13.py settled [bench/results/open13-rank-proofs]
 
 ``tally`` prints, over the rows of ``plait batch --bridge --hunt`` runs, how many
 entries were settled up (a 3-bridge plat), settled down (a lower bound of 4), are
 still open, and the time spent. ``control`` runs the same hunt on KnotInfo's knots of
 13 crossings whose bridge index the table gives as 4: a diagram with Wirtinger number
-3 there would contradict the table, so the expected count is zero.
+3 there would contradict the table, so the expected count is zero. ``settled``
+re-checks every rank proof file and prints the Markdown table of docs/open13.md.
 """
 
 from __future__ import annotations
@@ -102,6 +104,31 @@ def control(count: int, seconds: float, seed: int) -> dict:
             "wall": round(time.monotonic() - t0, 1)}
 
 
+def settled(folder: str) -> str:
+    """A Markdown table of the knots settled at b = 4 by the rank proof files in ``folder``:
+    name, group and class, size of the image class, and the file. Each file is re-checked
+    by :func:`plait.scoring.rankproof.check_rank_proof` first; a file that does not check is
+    listed as such, not as settled."""
+    from plait.scoring.rankproof import check_rank_proof
+
+    lines = ["| knot | quotient (meridians to) | meridian images | proof file |",
+             "|---|---|---|---|"]
+    bad = []
+    for path in sorted(Path(folder).glob("*.json")):
+        obj = json.loads(path.read_text(encoding="utf-8"))
+        res = check_rank_proof(obj)
+        if not (res.ok and res.bound == 4 and obj.get("pd")):
+            bad.append(path.name)
+            continue
+        group, klass = obj["class"]["target"].split("/", 1)
+        lines.append(f"| {path.stem} | {group} ({klass}s) | {obj['image_class_size']} | "
+                     f"`{path.name}` |")
+    lines.append("")
+    lines.append(f"{len(lines) - 3} knots settled at b = 4"
+                 + (f"; files that do not check: {', '.join(bad)}" if bad else ""))
+    return "\n".join(lines)
+
+
 def main(argv: list[str] | None = None) -> int:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     sub = ap.add_subparsers(dest="cmd", required=True)
@@ -115,7 +142,13 @@ def main(argv: list[str] | None = None) -> int:
     c.add_argument("--seconds", type=float, default=10.0)
     c.add_argument("--seed", type=int, default=0)
     c.add_argument("--out")
+    st = sub.add_parser("settled")
+    st.add_argument("folder", nargs="?",
+                    default=str(Path("bench") / "results" / "open13-rank-proofs"))
     a = ap.parse_args(argv)
+    if a.cmd == "settled":
+        print(settled(a.folder))
+        return 0
     if a.cmd == "tally":
         s = tally(a.rows)
         print(f"rows {s['rows']}: settled up {len(s['settled_up'])} {s['settled_up']}, "
