@@ -104,10 +104,11 @@ def pd_faces(pd: PDCode) -> dict[tuple[int, int], int]:
         a, b = occ
         other[a], other[b] = b, a
     face: dict[tuple[int, int], int] = {}
+    k = -1
     for start in other:
         if start in face:
             continue
-        k = len(set(face.values()))
+        k += 1
         d = start
         while d not in face:
             face[d] = k

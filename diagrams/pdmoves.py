@@ -96,23 +96,10 @@ def faces(pd: PDCode) -> list[list[tuple[int, int]]]:
 
 @lru_cache(maxsize=256)
 def _faces(pd: PDCode) -> tuple[tuple[tuple[int, int], ...], ...]:
-    cs = pd.crossings
-    where = _where(cs)
-    seen: set[tuple[int, int]] = set()
-    out = []
-    for j in range(len(cs)):
-        for s in range(4):
-            if (j, s) in seen:
-                continue
-            face = []
-            cur = (j, s)
-            while cur not in seen:
-                seen.add(cur)
-                face.append(cur)
-                j2, s2 = _other(where, cur[0], cur[1], cs)
-                cur = (j2, (s2 - 1) % 4)
-            out.append(tuple(face))
-    return tuple(out)
+    # the face walk of Vogel's algorithm (face on the left), cached per diagram
+    from plait.diagrams.vogel import faces as walk_faces
+
+    return tuple(tuple(f) for f in walk_faces(pd.crossings))
 
 
 def relabel(cs) -> PDCode:
