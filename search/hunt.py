@@ -462,13 +462,15 @@ def hunt_report(rep, pres, *, seconds: float, state_dir, seed: int = 0,
     Upper side: :func:`hunt` from the input diagram (a PD code as given, or the diagram
     of the report's plat) for a diagram with one seed fewer than the upper bound; when
     found, the plat of the proof file becomes the report's plat. Lower side:
-    :func:`plait.scoring.bounds.bridge_lower_bound` again with the same budget when it
-    accepts one (``budget`` keyword); otherwise its value stands as computed.
+    :func:`plait.scoring.bounds.bridge_lower_bound` again, first, with half the seconds as
+    its CPU budget; the upper side then gets the rest of ``seconds`` (wall clock, at least
+    half), so an easy lower side leaves nearly the whole budget to the diagram hunt.
 
     Returns
     -------
     dict
-        The hunt's JSON (``HuntResult.to_json`` plus ``lower_budget``), also stored in
+        The hunt's JSON (``HuntResult.to_json`` plus ``lower_budget`` and
+        ``lower_seconds``, the wall seconds the lower side took), also stored in
         ``rep.search["hunt"]``.
     """
     from plait.diagrams.pd import PDCode as _PD
@@ -484,10 +486,14 @@ def hunt_report(rep, pres, *, seconds: float, state_dir, seed: int = 0,
         start = pres
     else:
         start = relabel(plat_to_pd(rep.result).crossings)
-    # lower side first: the stronger obstructions get half the seconds as their budget
+    # lower side first: the stronger obstructions get half the seconds as their CPU
+    # budget; the upper side gets what they leave of the whole (at least the other half)
+    t0 = time.monotonic()
     lb = bridge_lower_bound(rep.result, budget=seconds / 2)
-    seconds_up = seconds / 2
+    lower_spent = time.monotonic() - t0
+    seconds_up = max(seconds / 2, seconds - lower_spent)
     out["lower_budget"] = seconds / 2
+    out["lower_seconds"] = round(lower_spent, 3)
     if lb.value > rep.lower:
         rep.lower = lb.value
         rep.lower_reasons[:] = list(lb.reasons)
