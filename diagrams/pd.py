@@ -48,14 +48,15 @@ class PDCode:
         return "[" + ",".join("[" + ",".join(map(str, c)) + "]" for c in self.crossings) + "]"
 
 
-def validate_pd(crossings: Iterable[Sequence[int]]) -> PDCode:
+def validate_pd(crossings: Iterable[Sequence[int]], planar: bool = True) -> PDCode:
     """Check a PD code and return it as a :class:`PDCode`.
 
     Checks: each crossing has four integer labels; every label appears exactly twice;
     the under-strand of every crossing is consistently oriented (each label is the
     outgoing under-end at most once and the incoming under-end at most once); and the
     code's own rotation system (the counterclockwise order at each crossing) is a planar
-    embedding.
+    embedding. ``planar=False`` skips that last check (for searches that only make moves
+    known to keep planarity, and check their results again later).
 
     Raises
     ------
@@ -87,10 +88,11 @@ def validate_pd(crossings: Iterable[Sequence[int]]) -> PDCode:
         if outof[label] > 1:
             raise InputError(f"pd: label {label} leaves two crossings as the under-strand")
     pd = PDCode(tuple(cs))
-    emb = planar_embedding(pd)
-    ok, why = _is_planar_embedding(emb)
-    if not ok:
-        raise InputError(f"pd: the code's rotation system is not planar ({why})")
+    if planar:
+        emb = planar_embedding(pd)
+        ok, why = _is_planar_embedding(emb)
+        if not ok:
+            raise InputError(f"pd: the code's rotation system is not planar ({why})")
     # orientation must be consistent along every component
     pd_orientation(pd)
     return pd

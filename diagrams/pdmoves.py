@@ -102,16 +102,17 @@ def _faces(pd: PDCode) -> tuple[tuple[tuple[int, int], ...], ...]:
     return tuple(tuple(f) for f in walk_faces(pd.crossings))
 
 
-def relabel(cs) -> PDCode:
+def relabel(cs, planar: bool = True) -> PDCode:
     """Validate crossings ``cs`` and renumber edges 1, 2, ... along each component (in
     the order of :func:`plait.diagrams.pd.pd_components`). Crossing order is kept.
+    ``planar=False`` skips the planarity check of :func:`plait.diagrams.pd.validate_pd`.
 
     Raises
     ------
     InputError
         When the crossings are not a valid PD code.
     """
-    pd = validate_pd(cs)
+    pd = validate_pd(cs, planar=planar)
     new: dict[int, int] = {}
     for comp in pd_components(pd):
         for x in comp:
@@ -416,7 +417,7 @@ def _flype_tangle(pd: PDCode, j: int, s: int, r1: int, r2: int):
     return tangle, ends, m1, m2
 
 
-def _flype(pd: PDCode, j: int, s: int, r1: int, r2: int) -> list:
+def _flype(pd: PDCode, j: int, s: int, r1: int, r2: int, planar: bool = True) -> list:
     got = _flype_tangle(pd, j, s, r1, r2)
     if got is None:
         raise InputError("pd move flype: no flype tangle at that crossing and those edges")
@@ -452,14 +453,16 @@ def _flype(pd: PDCode, j: int, s: int, r1: int, r2: int) -> list:
     for start in under:
         cs[j] = list(_rot(ring, start))
         try:
-            return list(relabel(cs).crossings)
+            return list(relabel(cs, planar).crossings)
         except InputError:
             continue
     raise InputError("pd move flype: the flyped diagram is not a valid PD code")
 
 
-def apply_pd_move(pd: PDCode, move: PDMove) -> PDCode:
-    """The diagram after one move, validated and relabelled (see :func:`relabel`).
+def apply_pd_move(pd: PDCode, move: PDMove, check: bool = True) -> PDCode:
+    """The diagram after one move, validated and relabelled (see :func:`relabel`);
+    ``check=False`` skips the planarity check of the result (searches use it: every move
+    keeps planarity, which tests/test_pdmoves.py checks, and proofs are replayed checked).
 
     Raises
     ------
@@ -496,10 +499,10 @@ def apply_pd_move(pd: PDCode, move: PDMove) -> PDCode:
         cs = _r3(pd, a[0], a[1])
     elif move.kind == "flype":
         occ(a[0], a[1])
-        cs = _flype(pd, a[0], a[1], a[2], a[3])
+        cs = _flype(pd, a[0], a[1], a[2], a[3], check)
     else:
         raise InputError(f"pd move: unknown kind {move.kind!r}")
-    return relabel(cs)
+    return relabel(cs, check)
 
 
 def pd_moves(pd: PDCode, kinds=PD_MOVE_KINDS) -> list[PDMove]:

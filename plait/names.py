@@ -411,6 +411,7 @@ class NameResult:
     candidates: list[Candidate] = field(default_factory=list)
     elapsed: float = 0.0
     out_dir: str | None = None
+    ruled_out: list[Candidate] = field(default_factory=list)  # matched, then excluded
 
     @property
     def certified(self) -> list[Candidate]:
@@ -419,6 +420,7 @@ class NameResult:
     def to_json(self) -> dict:
         return {
             "candidates": [c.to_json() for c in self.candidates],
+            "ruled_out": [c.to_json() for c in self.ruled_out],
             "unique": len({c.name for c in self.candidates}) == 1,
             "certified": [c.label() for c in self.certified],
             "input": {"strands": self.input.strands, "length": self.input.length},
@@ -444,13 +446,23 @@ def name_plat(pres, *, time: float = 30.0, seed: int = 0, out_dir=None,
               max_candidates: int = 4, input_obj: dict | None = None) -> NameResult:
     """Name the knot or link of a presentation from the table, with proofs.
 
-    Steps: reduce the input (55% of ``time``), compute its invariants and the table
-    candidates (:func:`candidates`); for each candidate build the table entry's plat from
-    its PD code (mirrored when the input matches the mirror image), reduce it, and look
-    for a move path between the two reduced plats by meeting in the middle over
-    canonical forms (:func:`plait.moves.meet.connect`). A path found is completed with
-    the input's own reduction and the inverted reduction of the table plat, replayed, and
-    written as a certificate from the input plat to the table plat.
+    Steps: reduce the input (45% of ``time``), compute its invariants and the table
+    candidates (:func:`candidates`). The reduced plat's closure is simplified by
+    Reidemeister moves (:func:`plait.diagrams.isotopy.simplify_pd`); its crossings bound the
+    crossing number, which rules out larger table entries. For each candidate:
+
+    1. when the simplified closure has the entry's crossing number, look for flypes, R3
+       and R2 moves that join it to the table's PD code (mirrored when the input matches
+       the mirror image; :func:`plait.diagrams.isotopy.join_diagrams`). A join found is
+       recorded in the certificate (input plat to reduced plat by plat moves, then the
+       diagram moves), and ``plait verify`` replays both halves;
+    2. otherwise build the table entry's plat from its PD code, reduce it, and look for a
+       move path between the two reduced plats by meeting in the middle over canonical
+       forms (:func:`plait.moves.meet.connect`), completed with the input's own reduction
+       and the inverted reduction of the table plat.
+
+    A certified name rules out the other candidates (a knot is one table entry); they
+    are listed in ``ruled_out``.
 
     Parameters
     ----------
@@ -470,6 +482,8 @@ def name_plat(pres, *, time: float = 30.0, seed: int = 0, out_dir=None,
     ----------
     .. [1] J. S. Birman, "On the stable equivalence of plat representations of knots and
        links", Canad. J. Math. 28 (1976).
+    .. [2] W. Menasco and M. Thistlethwaite, "The classification of alternating links",
+       Ann. of Math. 138 (1993).
     """
     from plait.convert import to_plat
     from plait.formats import presentation_to_obj
@@ -484,14 +498,42 @@ def name_plat(pres, *, time: float = 30.0, seed: int = 0, out_dir=None,
     if input_obj is None:
         input_obj = presentation_to_obj(pres)
     with tempfile.TemporaryDirectory(prefix="plait-name-") as tmp:
-        res, s0, in_recs = _reduce_with_records(start, 0.55 * time, seed, tmp)
+        res, s0, in_recs = _reduce_with_records(start, 0.45 * time, seed, tmp)
         reduced = res.result
         if s0 != start:  # pragma: no cover - reduce starts from to_plat of the input
             raise RuntimeError("reduction certificate does not start at the input plat")
         cands = candidates(reduced, (res.lower, reduced.bridges))
         result = NameResult(start, reduced, res.lower, cands)
+        closure = _simplified_closure(reduced, cands, seed,
+                                      min(4.0, 0.15 * max(0.0, deadline - _time.monotonic())))
+        if closure is not None:  # the input has a diagram with this many crossings
+            n = closure[1].length
+            for c in [c for c in cands if c.entry.crossings > n]:
+                c.note = (f"ruled out: crossing number {c.entry.crossings} > {n}, the "
+                          f"crossings of a diagram of the input (its plat closure simplified "
+                          f"by Reidemeister moves)")
+                result.ruled_out.append(c)
+            cands[:] = [c for c in cands if c.entry.crossings <= n]
+            for c in cands:
+                c.checked.append(f"crossing number ≤ {n}")
         tries = [c for c in cands][:max_candidates]
         done_names: set[str] = set()
+
+        def certify(cand, path, end, claim: str, moves: int, **table) -> None:
+            nonlocal out_dir
+            if out_dir is None:
+                from plait.search.runfolder import new_run_dir
+
+                out_dir = new_run_dir(prefix="name")
+            Path(out_dir).mkdir(parents=True, exist_ok=True)
+            cpath = Path(out_dir) / f"certificate-{_safe(cand.label())}.json"
+            write_certificate(cpath, start, path, end, input_obj, meta={
+                "table": {"name": cand.name, "entry": cand.entry.name, "mirror": cand.mirror,
+                          "source": TABLE_SOURCE, "pd": cand.entry.pd, **table},
+                "claim": f"the input is {cand.label()}: {claim}"})
+            cand.certified, cand.certificate, cand.moves = True, str(cpath), moves
+            done_names.add(cand.name)
+
         for t, cand in enumerate(tries):
             if cand.name in done_names:
                 cand.note = "not tried: the other mirror image is certified"
@@ -501,6 +543,14 @@ def name_plat(pres, *, time: float = 30.0, seed: int = 0, out_dir=None,
                 cand.note = "not tried: time budget used"
                 continue
             share = left / (len(tries) - t)
+            iso = None if closure is None else _diagram_path(closure, cand, 0.8 * share)
+            if iso is not None:  # the closure of the reduced plat is the table's diagram
+                n = len(iso["steps"]) + len(iso["target_steps"])
+                certify(cand, in_recs, reduced, f"the end plat's closure and the table "
+                        f"entry's diagram are joined by {n} diagram moves",
+                        len(in_recs) + n, isotopy=iso)
+                continue
+            share = (deadline - _time.monotonic()) / (len(tries) - t)
             try:
                 tab = table_plat(cand.entry, cand.mirror, time_limit=min(5.0, 0.2 * share))
             except Exception as exc:  # noqa: BLE001 - report, keep naming the others
@@ -517,27 +567,37 @@ def name_plat(pres, *, time: float = 30.0, seed: int = 0, out_dir=None,
             if not check.ok or check.final != tab:
                 cand.note = f"path did not replay ({check.reason})"  # pragma: no cover
                 continue
-            if out_dir is None:
-                from plait.search.runfolder import new_run_dir
-
-                out_dir = new_run_dir(prefix="name")
-            Path(out_dir).mkdir(parents=True, exist_ok=True)
-            cpath = Path(out_dir) / f"certificate-{_safe(cand.label())}.json"
-            write_certificate(cpath, start, path, tab, input_obj, meta={
-                "table": {"name": cand.name, "entry": cand.entry.name, "mirror": cand.mirror,
-                          "source": TABLE_SOURCE, "pd": cand.entry.pd},
-                "claim": f"the input is {cand.label()}: the end plat is built from the "
-                         "table entry's PD code",
-            })
-            cand.certified = True
-            cand.certificate = str(cpath)
-            cand.moves = len(path)
-            done_names.add(cand.name)
+            certify(cand, path, tab, "the end plat is built from the table entry's PD code",
+                    len(path))
         for cand in cands[max_candidates:]:
             cand.note = f"not tried: more than {max_candidates} candidates"
+        if done_names:  # a knot is one table entry: a certified name rules out the rest
+            for c in [c for c in cands if c.name not in done_names]:
+                c.note = f"ruled out: the input is certified as {', '.join(sorted(done_names))}"
+                result.ruled_out.append(c)
+            cands[:] = [c for c in cands if c.name in done_names]
     result.out_dir = str(out_dir) if out_dir is not None else None
     result.elapsed = _time.monotonic() - t0
     return result
+
+
+def _simplified_closure(plat: PlatWord, cands: list, seed: int, seconds: float):
+    if plat.length == 0 or not cands:
+        return None
+    from plait.diagrams.isotopy import simplified_closure
+
+    low = min(c.entry.crossings for c in cands)
+    return simplified_closure(plat, seconds=seconds, seed=seed, target=low)
+
+
+def _diagram_path(closure, cand: Candidate, seconds: float) -> dict | None:
+    if not cand.entry.pd or closure[1].length != cand.entry.crossings:
+        return None
+    from plait.diagrams.isotopy import proof_to_diagram
+    from plait.diagrams.pd import validate_pd
+
+    return proof_to_diagram(closure, validate_pd(cand.entry.pd), mirror=cand.mirror,
+                            seconds=seconds)
 
 
 def _safe(label: str) -> str:
@@ -564,6 +624,15 @@ def check_table_claim(meta: dict, end: PlatWord) -> str:
         return f"the recorded PD code is not the table's code of {entry.name}"
     from plait.diagrams.pdjones import plat_jones_all_orientations
 
+    if "isotopy" in tab:  # a diagram path from the end plat's closure to the table's code
+        from plait.diagrams.isotopy import check_isotopy_proof, mirror_pd
+        from plait.diagrams.pd import plat_to_pd, validate_pd
+
+        target = validate_pd(entry.pd)
+        why = check_isotopy_proof(tab["isotopy"], plat_to_pd(end),
+                                  mirror_pd(target) if tab.get("mirror") else target)
+        if why:
+            return f"diagram moves: {why}"
     want = _mirror(entry.jones) if tab.get("mirror") else entry.jones
     if not any(v == want for v in plat_jones_all_orientations(end)):
         return (f"the end plat's Jones polynomial is not that of {entry.name}"
@@ -583,8 +652,15 @@ def tables_installed() -> bool:
 def describe_claim(meta: dict) -> str:
     """``10_132 (mirror), end plat from its KnotInfo PD code`` for a checked claim."""
     tab = meta["table"]
-    return (f"{tab['name']}{' (mirror)' if tab.get('mirror') else ''}: the end plat is the "
-            f"table's diagram of {tab['entry']} ({tab.get('source', TABLE_SOURCE)})")
+    label = f"{tab['name']}{' (mirror)' if tab.get('mirror') else ''}"
+    if "isotopy" in tab:
+        iso = tab["isotopy"]
+        n = len(iso.get("steps", [])) + len(iso.get("target_steps", []))
+        return (f"{label}: the end plat's closure is the table's diagram of {tab['entry']} "
+                f"after {n} Reidemeister moves and flypes, replayed "
+                f"({tab.get('source', TABLE_SOURCE)})")
+    return (f"{label}: the end plat is the table's diagram of {tab['entry']} "
+            f"({tab.get('source', TABLE_SOURCE)})")
 
 
 def named_search_item(task) -> dict:
