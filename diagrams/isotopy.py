@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import heapq
 import random
 import time
 from collections import deque
@@ -37,7 +36,7 @@ ISOTOPY_FORMAT = "plait-pd-isotopy/1"
 # orientation (a mirror image is a different key).
 
 _SHAPE_KINDS = ("r3", "flype")  # moves that keep the number of crossings
-_DOWN_KINDS = ("r1-", "r2-")  # moves that remove crossings
+_DOWN_KINDS = ("r1-", "r2-", "reroute")  # moves that remove crossings
 
 
 def mirror_pd(pd: PDCode) -> PDCode:
@@ -85,12 +84,14 @@ def _shape_moves(pd: PDCode) -> list[PDMove]:
 
 
 def simplify_pd(pd: PDCode, *, seconds: float = 2.0, seed: int = 0, extra: int = 2,
-                target: int = 0) -> tuple[PDCode, list[PDMove]]:
-    """Fewer crossings by Reidemeister moves: a best-first search that takes every
-    crossing-removing move (R1 and R2 removals), slides strands with R3 and flypes to
-    uncover new ones, and as a last resort adds a bigon (R2) to at most ``extra`` crossings
-    above the best diagram so far. Stops at ``seconds`` or at a diagram with at most
-    ``target`` crossings (a known lower bound of the crossing number, say).
+                target: int = 0, patience: int = 30) -> tuple[PDCode, list[PDMove]]:
+    """Fewer crossings by Reidemeister moves: a random walk that takes a
+    crossing-removing move whenever there is one (R1 and R2 removals, arcs rerouted
+    above or below the rest), and otherwise slides strands by R3 and flypes, or now and
+    then adds a bigon (R2) while at most ``extra`` crossings above the best diagram so
+    far. After ``patience`` steps without a better diagram it restarts from the best.
+    Stops at ``seconds`` or at a diagram with at most ``target`` crossings (a known lower
+    bound of the crossing number, say).
 
     Returns
     -------
@@ -103,44 +104,34 @@ def simplify_pd(pd: PDCode, *, seconds: float = 2.0, seed: int = 0, extra: int =
     .. [1] K. Reidemeister, "Elementare Begründung der Knotentheorie", Abh. Math. Sem.
        Univ. Hamburg 5 (1927).
     """
+    from plait.diagrams.pdmoves import random_pd_move
+
     deadline = time.monotonic() + seconds
     rng = random.Random(seed)
     start = relabel(pd.crossings)
     best, best_path = start, []
-    # frontier entries: (crossings, depth, tiebreak, diagram, path); seen: canonical keys
-    frontier = [(start.length, 0, 0, start, [])]
-    seen = {canonical_key(start)}
-    tick = 0
-    while frontier and time.monotonic() < deadline:
-        n, depth, _t, cur, path = heapq.heappop(frontier)
-        # greedy: take removals at once
+    cur, path, idle = start, [], 0
+    while best.length > target and time.monotonic() < deadline:
         down = pd_moves(cur, _DOWN_KINDS)
-        while down:
-            nxt = _apply(cur, down[0])
-            if nxt is None:
-                down = down[1:]
+        if down:
+            nxt = _apply(cur, m := rng.choice(down))
+            if nxt is not None:
+                cur, path = nxt, path + [m]
+                if cur.length < best.length:
+                    best, best_path, idle = cur, path, 0
                 continue
-            path = path + [down[0]]
-            cur = nxt
-            down = pd_moves(cur, _DOWN_KINDS)
-        if cur.length < best.length:
-            best, best_path = cur, path
-        if cur.length <= target:
-            break
-        moves = _shape_moves(cur)
-        if cur.length < best.length + extra:
-            ups = pd_moves(cur, ("r2+",))
-            moves += rng.sample(ups, min(len(ups), 6))
-        for m in moves:
-            nxt = _apply(cur, m)
-            if nxt is None:
-                continue
-            k = canonical_key(nxt)
-            if k in seen:
-                continue
-            seen.add(k)
-            tick += 1
-            heapq.heappush(frontier, (nxt.length, depth + 1, tick, nxt, path + [m]))
+        idle += 1
+        if idle > patience:
+            cur, path, idle = best, best_path, 0
+        weights = {"r3": 1.0, "flype": 1.0}
+        if cur.length < best.length + extra and rng.random() < 0.3:
+            weights["r2+"] = 1.0
+        m = random_pd_move(cur, rng, weights)
+        nxt = None if m is None else _apply(cur, m)
+        if nxt is None:  # nothing to slide here: back to the best diagram
+            cur, path = best, best_path
+            continue
+        cur, path = nxt, path + [m]
     return best, best_path
 
 

@@ -47,8 +47,14 @@ __all__ = [
 #                            the edges labelled r1 (beside slot s + 1) and r2 (beside slot
 #                            s): turn T over (a half turn about the axis through crossing j)
 #                            and move crossing j to T's other side
-PD_MOVE_KINDS = ("r1+", "r1-", "r2+", "r2-", "r3", "flype")
-_ARITY = {"r1+": 4, "r1-": 1, "r2+": 5, "r2-": 2, "r3": 2, "flype": 4}
+#   reroute (j, under)       the over-arc (under=1: under-arc) whose under-strand leaves
+#                            crossing j along slot 2 (of the diagram with every crossing
+#                            switched, for an under-arc) is laid again along a shortest
+#                            path through the faces (plait.diagrams.reroute); only when
+#                            that removes crossings (R2 and R3 moves, and R1 where the
+#                            arc turns about its own ends)
+PD_MOVE_KINDS = ("r1+", "r1-", "r2+", "r2-", "r3", "flype", "reroute")
+_ARITY = {"r1+": 4, "r1-": 1, "r2+": 5, "r2-": 2, "r3": 2, "flype": 4, "reroute": 2}
 
 
 @dataclass(frozen=True)
@@ -500,6 +506,11 @@ def apply_pd_move(pd: PDCode, move: PDMove, check: bool = True) -> PDCode:
     elif move.kind == "flype":
         occ(a[0], a[1])
         cs = _flype(pd, a[0], a[1], a[2], a[3], check)
+    elif move.kind == "reroute":
+        occ(a[0], 2)
+        from plait.diagrams.reroute import reroute_arc
+
+        cs = reroute_arc(pd, a[0], a[1] & 1)
     else:
         raise InputError(f"pd move: unknown kind {move.kind!r}")
     return relabel(cs, check)
@@ -538,6 +549,10 @@ def pd_moves(pd: PDCode, kinds=PD_MOVE_KINDS) -> list[PDMove]:
         for j in range(len(cs)):
             for s in range(4):
                 out += _flypes_at(pd, j, s)
+    if "reroute" in kinds:
+        from plait.diagrams.reroute import arc_reroutes
+
+        out += [PDMove("reroute", (j, u)) for j, u, _gain in arc_reroutes(pd)]
     return out
 
 

@@ -412,6 +412,7 @@ class NameResult:
     elapsed: float = 0.0
     out_dir: str | None = None
     ruled_out: list[Candidate] = field(default_factory=list)  # matched, then excluded
+    diagram_crossings: int | None = None  # crossings of the simplified closure
 
     @property
     def certified(self) -> list[Candidate]:
@@ -421,6 +422,7 @@ class NameResult:
         return {
             "candidates": [c.to_json() for c in self.candidates],
             "ruled_out": [c.to_json() for c in self.ruled_out],
+            "diagram_crossings": self.diagram_crossings,
             "unique": len({c.name for c in self.candidates}) == 1,
             "certified": [c.label() for c in self.certified],
             "input": {"strands": self.input.strands, "length": self.input.length},
@@ -507,7 +509,7 @@ def name_plat(pres, *, time: float = 30.0, seed: int = 0, out_dir=None,
         closure = _simplified_closure(reduced, cands, seed,
                                       min(4.0, 0.15 * max(0.0, deadline - _time.monotonic())))
         if closure is not None:  # the input has a diagram with this many crossings
-            n = closure[1].length
+            n = result.diagram_crossings = closure[1].length
             for c in [c for c in cands if c.entry.crossings > n]:
                 c.note = (f"ruled out: crossing number {c.entry.crossings} > {n}, the "
                           f"crossings of a diagram of the input (its plat closure simplified "

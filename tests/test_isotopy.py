@@ -131,3 +131,35 @@ def test_every_search_move_keeps_the_knot(k, seed):
         cur = apply_pd_move(cur, rng.choice(ms), check=False)
         validate_pd(cur.crossings)  # planar after all
     assert pd_jones(cur) == k.jones
+
+
+@pytest.mark.parametrize("k", SAMPLE, ids=lambda k: k.name)
+def test_rerouted_arcs_keep_the_knot_and_the_writhe(k):
+    # law: an arc lifted above (or pushed below) the rest and laid down along a shortest
+    # path through the faces is an isotopy (Reidemeister 1927: R2 and R3 moves, and R1
+    # where the arc turns about its own ends): the code stays valid and planar,
+    # KnotInfo's Jones polynomial is kept, and the diagram loses exactly the announced
+    # number of crossings
+    from plait.diagrams.reroute import arc_reroutes, reroute_arc
+
+    d = validate_pd(k.pd)
+    messy = _walk(d, ("r2+",), 3, seed=11)
+    found = arc_reroutes(messy)
+    assert found, "three bigons always leave an arc to reroute"
+    for u0, under, gain in found:
+        new = validate_pd(reroute_arc(messy, u0, under))
+        assert new.length == messy.length - gain
+        assert pd_jones(new) == k.jones
+
+
+def test_a_reroute_that_shortens_nothing_is_refused():
+    # common practice: the table's diagram of 8_5 is minimal (KnotInfo crossing number 8),
+    # so no arc of it can be rerouted with fewer crossings
+    from plait.diagrams.pdmoves import PDMove
+    from plait.diagrams.reroute import arc_reroutes
+    from plait.errors import InputError
+
+    d = validate_pd(knot("8_5").pd)
+    assert arc_reroutes(d) == []
+    with pytest.raises(InputError):
+        apply_pd_move(d, PDMove("reroute", (0, 0)))

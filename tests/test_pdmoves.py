@@ -30,6 +30,8 @@ SAMPLE = [k for k in knots(9) if k.name in
 # crossing of either sign, a bigon two of opposite signs, a triangle keeps all signs; a
 # flype keeps every crossing's sign, Tait's flyping conjecture, Menasco-Thistlethwaite 1993)
 DELTA_N = {"r1+": 1, "r1-": -1, "r2+": 2, "r2-": -2, "r3": 0, "flype": 0}
+# an arc rerouted above (or below) the rest removes crossings (plait makes it only
+# then); it may change the writhe where the arc turns about its own ends (common practice)
 
 
 def test_sample_present():
@@ -62,9 +64,14 @@ def test_every_move_keeps_the_knot(i, seed, kind):
     new = apply_pd_move(pd, mv)
     assert validate_pd(new.crossings) == new
     assert pd_jones(new) == k.jones  # source: KnotInfo via database-knotinfo
-    assert new.length - pd.length == DELTA_N[kind]
+    if kind == "reroute":
+        assert new.length < pd.length
+    else:
+        assert new.length - pd.length == DELTA_N[kind]
     dw = sum(pd_crossing_signs(new)) - sum(pd_crossing_signs(pd))
-    if kind in ("r2+", "r2-", "r3", "flype"):
+    if kind == "reroute":
+        pass
+    elif kind in ("r2+", "r2-", "r3", "flype"):
         assert dw == 0
     else:
         assert abs(dw) == 1
