@@ -27,19 +27,12 @@ import time
 
 from plait.atomic import write_json_atomic
 from plait.scoring import meridional as M
+from plait.scoring.quandles import LONG_TARGETS
 from plait.scoring.rankproof import check_rank_proof
 from plait.word import ClosedBraid
 
 #: Targets tried, most productive first (measured on the first knots of the list).
-PRIORITY = (
-    "W(~A3) mod 5/reflection", "Sp(4,3)/transvection", "W(~A3) mod 3/reflection",
-    "W(~A3) mod 7/reflection", "S5/transposition", "S6/transposition",
-    "W(D4) mod 5/reflection", "W(D5) mod 3/reflection", "W(F4) mod 5/reflection",
-    "W(F4) mod 5/reflection'", "W(~A4) mod 3/reflection", "W(~A4) mod 5/reflection",
-    "W(~B3) mod 3/reflection", "W(~B3) mod 5/reflection", "W(~C3) mod 5/reflection",
-    "W(~D4) mod 3/reflection", "O(4,3;1)/reflection", "O(4,3;1)/second reflection",
-    "O(4,3;2)/reflection", "O(4,3;2)/second reflection", "Sp(6,2)/transvection",
-)
+PRIORITY = LONG_TARGETS  # plait.scoring.quandles: most productive first
 
 
 def open_entries() -> list[tuple[str, list[int], list]]:

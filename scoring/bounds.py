@@ -26,6 +26,10 @@ FOX_PRIMES = (3, 5, 7)
 #: Label operations per target in the search for b >= 4 and more.
 RANK_BUDGET = 1_000_000
 
+#: CPU seconds from which the search for b >= 4 tries every group of
+#: :data:`plait.scoring.quandles.LONG_TARGETS` with no per-target operation cap.
+LONG_BUDGET = 10.0
+
 #: A homomorphism search gives up (and its count is not used) after this many label
 #: operations.
 QUOTIENT_BUDGET = 3_000_000
@@ -572,6 +576,13 @@ def _meridional(plat: PlatWord, want: int):
 
     d = _DEADLINE.get()
     deadline = None if d is None else _time.monotonic() + max(0.0, d - _clock())
+    budget = _BUDGET.get()
+    if want >= 4 and budget is not None and budget >= LONG_BUDGET:
+        # a long budget (the hunt): more and larger groups, no per-target operation cap
+        from plait.scoring.quandles import LONG_TARGETS
+
+        return meridional_rank_bound(plat, want, deadline=deadline, ops=None,
+                                     names=LONG_TARGETS)
     if want <= 3:
         return meridional_rank_bound(plat, want, deadline=deadline, ops=QUOTIENT_BUDGET,
                                      names=DEFAULT_TARGETS)

@@ -504,6 +504,19 @@ RANK_TARGETS: tuple[str, ...] = (
     "W(~A3) mod 5/reflection",
 )
 
+#: The targets of a long lower-bound budget (the hunt, :func:`plait.search.hunt.hunt_report`,
+#: and bench/open13_rank.py), searched without a per-target operation cap, most
+#: productive first on the open 13-crossing entries.
+LONG_TARGETS: tuple[str, ...] = (
+    "W(~A3) mod 5/reflection", "Sp(4,3)/transvection", "W(~A3) mod 3/reflection",
+    "W(~A3) mod 7/reflection", "S5/transposition", "S6/transposition",
+    "W(D4) mod 5/reflection", "W(D5) mod 3/reflection", "W(F4) mod 5/reflection",
+    "W(F4) mod 5/reflection'", "W(~A4) mod 3/reflection", "W(~A4) mod 5/reflection",
+    "W(~B3) mod 3/reflection", "W(~B3) mod 5/reflection", "W(~C3) mod 5/reflection",
+    "W(~D4) mod 3/reflection", "O(4,3;1)/reflection", "O(4,3;1)/second reflection",
+    "O(4,3;2)/reflection", "O(4,3;2)/second reflection", "Sp(6,2)/transvection",
+)
+
 
 def _size_hint(name: str) -> int:
     entry = _catalog().get(name)
