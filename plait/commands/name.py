@@ -51,4 +51,7 @@ def run(args: argparse.Namespace) -> int:
                 print(f"  {c.label()}: not certified ({c.note})")
     checked = res.candidates[0].checked
     print(f"invariants checked: {', '.join(checked)}")
+    if res.ruled_out:
+        print("ruled out: " + "; ".join(f"{c.label()} ({c.note.removeprefix('ruled out: ')})"
+                                        for c in res.ruled_out))
     return 0
