@@ -139,7 +139,7 @@ def main() -> None:
     ap.add_argument("--max-knot", type=int, default=10)
     ap.add_argument("--max-link", type=int, default=9)
     ap.add_argument("--knots", type=int, default=24, help="sampled knots (0: all)")
-    ap.add_argument("--links", type=int, default=6, help="sampled 2-component links")
+    ap.add_argument("--links", type=int, default=6, help="sampled 2-component links (0: all)")
     ap.add_argument("--time", type=float, default=30.0)
     ap.add_argument("--seed", type=int, default=1)
     ap.add_argument("--workers", type=int, default=2)
@@ -171,7 +171,8 @@ def main() -> None:
         if comps == 2 and c <= args.max_link and k["braid_notation"] and k["name"].endswith("{0}"):
             links.append((k["name"], k["name_unoriented"] or k["name"][:-3],
                           _braid(k["braid_notation"])))
-    links = sorted(rng.sample(links, min(args.links, len(links))))
+    links = sorted(rng.sample(links, min(args.links, len(links)))) if args.links else \
+        sorted(links)
     print("", flush=True)
     print("\n".join(part_names(knots, args.time, args.workers,
                                f"scrambled knots ≤ {args.max_knot} crossings, "
