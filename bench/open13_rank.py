@@ -2,7 +2,7 @@
 
 Usage::
 
-    nice -n 10 .venv/bin/python bench/open13_rank.py [--shard I/N] [--seconds 20]
+    nice -n 10 .venv/bin/python bench/open13_rank.py [--shard I/N] [--seconds 20] [--only A,B]
         [--out bench/results/open13-rank-proofs]
 
 For every 13-crossing knot whose KnotInfo bridge_index is the range [3,4] (source: KnotInfo
@@ -58,9 +58,13 @@ def main(argv: list[str] | None = None) -> int:
     ap.add_argument("--route", choices=("braid", "pd", "both"), default="both",
                     help="plats tried: the braid notation's, the PD code's, or both in turn")
     ap.add_argument("--out", default=os.path.join("bench", "results", "open13-rank-proofs"))
+    ap.add_argument("--only", default="", help="comma-separated knot names (default: all)")
     args = ap.parse_args(argv)
     i, n = (int(x) for x in args.shard.split("/"))
     rows = open_entries()
+    if args.only:
+        only = set(args.only.split(","))
+        rows = [r for r in rows if r[0] in only]
     print(f"{len(rows)} open entries; shard {i}/{n}", flush=True)
     os.makedirs(args.out, exist_ok=True)
     found = done = 0
