@@ -84,14 +84,16 @@ def _shape_moves(pd: PDCode) -> list[PDMove]:
 
 
 def simplify_pd(pd: PDCode, *, seconds: float = 2.0, seed: int = 0, extra: int = 2,
-                target: int = 0, patience: int = 30) -> tuple[PDCode, list[PDMove]]:
+                target: int = 0, patience: int = 30, max_steps: int | None = None
+                ) -> tuple[PDCode, list[PDMove]]:
     """Fewer crossings by Reidemeister moves: a random walk that takes a
     crossing-removing move whenever there is one (R1 and R2 removals, arcs rerouted
     above or below the rest), and otherwise slides strands by R3 and flypes, or now and
     then adds a bigon (R2) while at most ``extra`` crossings above the best diagram so
     far. After ``patience`` steps without a better diagram it restarts from the best.
-    Stops at ``seconds`` or at a diagram with at most ``target`` crossings (a known lower
-    bound of the crossing number, say).
+    Stops at ``seconds``, after ``max_steps`` moves tried (a deterministic budget: same
+    diagram and seed, same result), or at a diagram with at most ``target`` crossings (a
+    known lower bound of the crossing number, say).
 
     Returns
     -------
@@ -111,7 +113,11 @@ def simplify_pd(pd: PDCode, *, seconds: float = 2.0, seed: int = 0, extra: int =
     start = relabel(pd.crossings)
     best, best_path = start, []
     cur, path, idle = start, [], 0
+    steps = 0
     while best.length > target and time.monotonic() < deadline:
+        steps += 1
+        if max_steps is not None and steps > max_steps:
+            break
         down = pd_moves(cur, _DOWN_KINDS)
         if down:
             nxt = _apply(cur, m := rng.choice(down))

@@ -16,6 +16,7 @@ __all__ = [
     "construct",
     "check_rebridge",
     "RebridgeError",
+    "step_diagram",
 ]
 
 #: Move kind of the diagram step in certificates.
@@ -31,6 +32,16 @@ REBRIDGE = "rebridge"
 #                                         colored through crossing_t (0-based)
 #   a, b,                                 projection direction (plait.diagrams.heights.sweep_plat)
 #   strands, letter_1 .. letter_L         the plat the construction gives
+#
+# A step that first redraws the diagram starts with a prefix (the seed count is never
+# negative, so the two layouts cannot be confused):
+#
+#   -1, m, code_1, args_1.., .. code_m, args_m..
+#                                         m Reidemeister moves (plait.diagrams.pdmoves; code
+#                                         = index in PD_MOVE_KINDS, then that kind's
+#                                         arguments) applied to the relabelled PD code of
+#                                         the current plat; the coloring and the
+#                                         construction then refer to the diagram they give
 
 
 class RebridgeError(Exception):
@@ -51,12 +62,16 @@ class RebridgeData:
         Horizontal projection direction used by the sweep.
     result : PlatWord
         The plat the construction produced.
+    redraw : tuple of PDMove
+        Reidemeister moves that redraw the plat's diagram before it is colored (empty:
+        the plat's own diagram).
     """
 
     seeds: tuple[int, ...]
     steps: tuple[tuple[int, int], ...]
     direction: tuple[int, int]
     result: PlatWord
+    redraw: tuple = ()  # PDMove records applied to the plat's diagram first
 
     @property
     def number(self) -> int:
@@ -66,7 +81,14 @@ class RebridgeData:
 
 def encode(data: RebridgeData) -> MoveRecord:
     """The move record of a diagram step."""
-    args: list[int] = [len(data.seeds), *data.seeds, len(data.steps)]
+    from plait.diagrams.pdmoves import PD_MOVE_KINDS
+
+    args: list[int] = []
+    if data.redraw:
+        args += [-1, len(data.redraw)]
+        for m in data.redraw:
+            args += [PD_MOVE_KINDS.index(m.kind), *m.args]
+    args += [len(data.seeds), *data.seeds, len(data.steps)]
     for j, a in data.steps:
         args += [j, a]
     args += [data.direction[0], data.direction[1], data.result.strands, *data.result.word]
@@ -82,6 +104,21 @@ def decode(args) -> RebridgeData:
         When the lengths do not add up or the result is not a valid plat.
     """
     a = list(args)
+    redraw: list = []
+    if a and a[0] == -1:
+        from plait.diagrams.pdmoves import _ARITY, PD_MOVE_KINDS, PDMove
+
+        try:
+            m, pos = a[1], 2
+            for _ in range(m):
+                kind = PD_MOVE_KINDS[a[pos]] if 0 <= a[pos] < len(PD_MOVE_KINDS) else None
+                if kind is None:
+                    raise RebridgeError(f"unknown diagram move code {a[pos]}")
+                redraw.append(PDMove(kind, tuple(a[pos + 1:pos + 1 + _ARITY[kind]])))
+                pos += 1 + _ARITY[kind]
+        except IndexError:
+            raise RebridgeError("arguments end too early for the redraw prefix") from None
+        a = a[pos:]
     try:
         k = a[0]
         if k < 1:
@@ -104,7 +141,32 @@ def decode(args) -> RebridgeData:
         result = PlatWord(strands, word)
     except (InputError, ValueError, TypeError) as exc:
         raise RebridgeError(f"recorded result is not a plat: {exc}") from None
-    return RebridgeData(seeds, steps, direction, result)
+    return RebridgeData(seeds, steps, direction, result, tuple(redraw))
+
+
+def step_diagram(plat: PlatWord, data: RebridgeData | None = None, check: bool = True):
+    """The diagram a diagram step colors: the plat's PD code, or, when the step redraws
+    it, the moves of ``data.redraw`` replayed on the relabelled code (each result
+    validated when ``check``).
+
+    Raises
+    ------
+    RebridgeError
+        When a recorded move does not apply.
+    """
+    from plait.diagrams.pd import plat_to_pd
+    from plait.diagrams.pdmoves import apply_pd_move, relabel
+
+    pd = plat_to_pd(plat)
+    if data is None or not data.redraw:
+        return pd
+    cur = relabel(pd.crossings)
+    for t, m in enumerate(data.redraw, start=1):
+        try:
+            cur = apply_pd_move(cur, m, check=check)
+        except InputError as exc:
+            raise RebridgeError(f"redraw move {t} ({m.kind}): {exc}") from None
+    return cur
 
 
 def _build(pd, wirt, direction: tuple[int, int], lf=None) -> PlatWord:
@@ -119,7 +181,7 @@ def _build(pd, wirt, direction: tuple[int, int], lf=None) -> PlatWord:
 
 
 def construct(plat: PlatWord, *, time_limit: float = 1.0, seed: int = 0,
-              directions: int = 8) -> tuple[int, RebridgeData | None]:
+              directions: int = 8, redraw: int = 0) -> tuple[int, RebridgeData | None]:
     """The Wirtinger number of the plat's diagram and, when it is below the plat's
     bridge count, the diagram step to a plat with that many bridges.
 
@@ -128,7 +190,11 @@ def construct(plat: PlatWord, *, time_limit: float = 1.0, seed: int = 0,
     (:func:`plait.diagrams.wirtinger.wirtinger`); the coloring gives a bridge position with one
     maximum per seed (:func:`plait.diagrams.heights.lift`), read as a plat along each of the
     first ``directions`` generic directions of :data:`plait.diagrams.heights.DIRECTIONS`; the
-    shortest word is kept (the first in that order on a tie).
+    shortest word is kept (the first in that order on a tie). With ``redraw > 0`` the
+    diagram is also simplified by Reidemeister moves (at most that many steps of
+    :func:`plait.diagrams.isotopy.simplify_pd`, a fixed seed: deterministic); when the
+    simpler diagram colors from no more seeds it is the one used, and its moves are
+    recorded in the step.
 
     Returns
     -------
@@ -156,6 +222,15 @@ def construct(plat: PlatWord, *, time_limit: float = 1.0, seed: int = 0,
     except InputError:
         return plat.bridges, None  # a crossingless component: no PD code
     wirt = wirtinger(pd, method="cpsat", time_limit=time_limit, seed=seed)
+    moves: tuple = ()
+    if redraw > 0 and wirt.number > 1:
+        from plait.diagrams.isotopy import simplify_pd
+
+        small, path = simplify_pd(pd, seconds=float("inf"), seed=seed, max_steps=redraw)
+        if path and small.length < pd.length:
+            w2 = wirtinger(small, method="cpsat", time_limit=time_limit, seed=seed)
+            if w2.number <= wirt.number:
+                pd, wirt, moves = small, w2, tuple(path)
     if wirt.number >= plat.bridges:
         return wirt.number, None
     lf = lift(pd, wirt, drawing(pd))
@@ -175,14 +250,15 @@ def construct(plat: PlatWord, *, time_limit: float = 1.0, seed: int = 0,
     if best is None:
         return plat.bridges, None
     steps = tuple((s.crossing, s.arc) for s in wirt.steps)
-    return wirt.number, RebridgeData(tuple(wirt.seeds), steps, best_dir, best)
+    return wirt.number, RebridgeData(tuple(wirt.seeds), steps, best_dir, best, moves)
 
 
 def check_rebridge(word, strands: int, args) -> PlatWord:
     """Check a diagram step without trusting the search, and return its result.
 
-    1. Rebuild the PD code of the current plat (:func:`plait.diagrams.pd.plat_to_pd`) and its
-       arcs.
+    1. Rebuild the PD code of the current plat (:func:`plait.diagrams.pd.plat_to_pd`), replay
+       the recorded Reidemeister moves of a redrawing step on it (each code validated
+       afresh), and take the arcs.
     2. Check that the recorded sequence is a valid Wirtinger coloring from the recorded
        seeds: each step colors an uncolored under-arc at a crossing whose over-arc and
        other under-arc are already colored, and every arc ends up colored.
@@ -196,7 +272,6 @@ def check_rebridge(word, strands: int, args) -> PlatWord:
         With the reason of the first failed check.
     """
     from plait.diagrams.heights import Degenerate
-    from plait.diagrams.pd import plat_to_pd
     from plait.diagrams.wirtinger import ColoringStep, Wirtinger, diagram_arcs
     from plait.errors import GuardViolation
     from plait.scoring.fingerprint import fingerprint, guard
@@ -210,7 +285,7 @@ def check_rebridge(word, strands: int, args) -> PlatWord:
         raise RebridgeError(f"recorded result has {data.result.bridges} bridges, the "
                             f"coloring {data.number} seeds")
     try:
-        pd = plat_to_pd(before)
+        pd = step_diagram(before, data)
     except InputError as exc:
         raise RebridgeError(f"the current plat has no PD code: {exc}") from None
     arcs = diagram_arcs(pd)

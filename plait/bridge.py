@@ -175,7 +175,9 @@ def bridge_report(pres: Presentation, *, time: float | None = None, steps: int |
     for t, plat_before, data in steps_wirt:
         upper_reasons.append(
             f"diagram step {t} of the certificate: the diagram of a {plat_before.bridges}-"
-            f"bridge plat on the path has a Wirtinger coloring from {data.number} seeds; its "
+            f"bridge plat on the path"
+            + (f", redrawn by {len(data.redraw)} Reidemeister moves," if data.redraw else "")
+            + f" has a Wirtinger coloring from {data.number} seeds; its "
             f"bridge position gives a plat with {data.number} bridges (Blair–Kjuchukova–"
             f"Ozawa: the Wirtinger number of a diagram is its perpendicular bridge number)")
     if wirt is None and steps_wirt:
@@ -285,8 +287,9 @@ def _diagram_steps(res) -> list:
 def _wirtinger_of(plat: PlatWord, data) -> Wirtinger:
     # the recorded seeds and coloring of a diagram step, on the arcs of the plat's diagram
     from plait.diagrams.wirtinger import ColoringStep, diagram_arcs
+    from plait.moves.rebridge import step_diagram
 
-    arcs = diagram_arcs(plat_to_pd(plat))
+    arcs = diagram_arcs(step_diagram(plat, data))
     steps = []
     for t, (j, a) in enumerate(data.steps, start=1):
         i, u = arcs.under_in[j], arcs.under_out[j]

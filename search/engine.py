@@ -20,6 +20,9 @@ OMEGA_LENGTH_FACTOR = 4
 OMEGA_LENGTH_SLACK = 12
 #: Steps of the budget charged per diagram step tried.
 OMEGA_STEP_COST = 25
+#: Steps of Reidemeister simplification (plait.diagrams.isotopy.simplify_pd) tried on a
+#: plat's diagram before its Wirtinger coloring (the diagram step's redraw).
+OMEGA_REDRAW = 40
 
 __all__ = [
     "OMEGA_TIME",
@@ -274,7 +277,8 @@ class SearchContext:
             self.omega_calls += 1
             if self.on_diagram is not None:
                 self.on_diagram(plat)
-            hit = construct(plat, time_limit=self.omega_time, directions=self.omega_directions)
+            hit = construct(plat, time_limit=self.omega_time, directions=self.omega_directions,
+                            redraw=OMEGA_REDRAW)
             self.omega_cache[h] = hit
             while len(self.omega_cache) > self.omega_cap:
                 self.omega_cache.popitem(last=False)

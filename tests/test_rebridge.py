@@ -197,3 +197,53 @@ def test_the_construction_is_the_same_in_every_process(step_cert):
         out = subprocess.run([sys.executable, "-m", "plait.cli", "verify", str(step_cert)],
                              capture_output=True, text=True, env=env, timeout=300)
         assert out.returncode == 0, out.stdout + out.stderr
+
+
+@pytest.fixture(scope="module")
+def redraw_cert(tmp_path_factory):
+    # 10_27's closed braid scrambled as in bench/scrambled.py: its own diagram colors from
+    # 4 seeds, the diagram redrawn by Reidemeister moves from 2 (KnotInfo: bridge index 2)
+    k = knot("10_27")
+    clean = ClosedBraid.from_word(k.braid).to_plat()
+    index = {r.name: i for i, r in enumerate(knots(10))}["10_27"]
+    scr, _ = moves.scramble(clean, seed=index, length_factor=5, stabilizations=2)
+    res = reduce(scr, strategy="auto", steps=3000, seed=0, quiet=True, handle_signals=False,
+                 runs_root=str(tmp_path_factory.mktemp("runs")))
+    cert = moves.load_certificate(res.certificate)
+    redraws = [r for r in cert.records if r.kind == "rebridge" and r.args[0] == -1]
+    return res, redraws
+
+
+def test_a_redrawn_diagram_step_reaches_the_bridge_index_and_verifies(redraw_cert):
+    # source: KnotInfo via database-knotinfo: 10_27 has bridge index 2 and this Jones
+    # polynomial; the certificate replays, redraw moves included
+    res, redraws = redraw_cert
+    assert redraws, "the run took a diagram step with a redraw"
+    assert res.result.bridges == 2
+    assert plat_jones(res.result) == knot("10_27").jones
+    v = moves.verify_certificate(res.certificate)
+    assert v.ok and v.constructions >= 1
+
+
+def test_a_tampered_redraw_is_rejected(redraw_cert, tmp_path):
+    # Reidemeister 1927 / common practice: a redraw move edited, dropped or of an unknown
+    # kind does not replay, so the step is refused
+    from plait.moves.rebridge import RebridgeError, check_rebridge
+
+    res, redraws = redraw_cert
+    cert = moves.load_certificate(res.certificate)
+    plat = cert.start
+    for rec in cert.records:
+        if rec is redraws[0] or rec == redraws[0]:
+            break
+        plat = moves.apply_move(plat, rec)
+    args = list(redraws[0].args)
+    assert check_rebridge(plat.word, plat.strands, args).bridges == 2
+    d = decode(args)
+    m = len(d.redraw)
+    bad_kind = args[:2] + [99] + args[3:]
+    dropped = [-1, m - 1] + args[2 + 1 + len(d.redraw[0].args):]
+    shifted = args[:3] + [args[3] + 1] + args[4:]
+    for bad in (bad_kind, dropped, shifted):
+        with pytest.raises(RebridgeError):
+            check_rebridge(plat.word, plat.strands, bad)
