@@ -1,7 +1,8 @@
 """The open 13-crossing entries: tally hunt batch rows, and run the index-4 control set.
 
 Usage:
-    python bench/open13.py tally bench/results/open13-*/results.jsonl
+    python bench/open13.py tally bench/results/open13-*/results.jsonl \
+        [--proofs bench/results/open13-rank-proofs]
     python bench/open13.py trim runs/open13-s0of5/results.jsonl \
         bench/results/open13-s0of5/results.jsonl
     python bench/open13.py control --count 20 --seconds 10 [--out FILE]
@@ -27,25 +28,53 @@ from pathlib import Path
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
 
-def tally(paths: list[str]) -> dict:
-    rows = []
+def _hunt_seconds(h: dict) -> float:
+    # the hunt's own seconds: its lower side (wall) then the diagram hunt
+    return h.get("lower_seconds", 0) + h.get("elapsed", 0)
+
+
+def tally(paths: list[str], proofs: str | None = None) -> dict:
+    """Counts over batch rows (a later file's row replaces an earlier one of the same
+    knot); with ``proofs``, the knots settled down also by a rank proof file there."""
+    import statistics
+
+    by_id: dict = {}
     for p in paths:
         with open(p, encoding="utf-8") as fh:
-            rows += [json.loads(line) for line in fh if line.strip()]
-    up = [r["id"] for r in rows if not r.get("error") and r["bridge_bounds"]["upper"] <= 3]
-    down = [r["id"] for r in rows if not r.get("error") and r["bridge_bounds"]["lower"] >= 4]
+            for line in fh:
+                if line.strip():
+                    r = json.loads(line)
+                    by_id[r["id"]] = r
+    rows = list(by_id.values())
+    ok = [r for r in rows if not r.get("error")]
+    up = [r["id"] for r in ok if r["bridge_bounds"]["upper"] <= 3]
+    down = [r["id"] for r in ok if r["bridge_bounds"]["lower"] >= 4]
     errors = [r["id"] for r in rows if r.get("error")]
-    hunts = [r.get("hunt") or {} for r in rows if not r.get("error")]
+    hunts = [r.get("hunt") or {} for r in ok]
+    hunted = [h for h in hunts if h.get("evaluated")]
+    files = set()
+    if proofs:
+        files = {q.stem for q in Path(proofs).glob("*.json")}
+    settled_down = sorted(set(down) | files)
+    el = [r.get("elapsed", 0) for r in rows]
+    open_ids = [r["id"] for r in ok if r["id"] not in set(up) | set(settled_down)]
     return {
         "rows": len(rows),
         "settled_up": up,
-        "settled_down": down,
-        "open": len(rows) - len(up) - len(down) - len(errors),
+        "settled_down_batch": down,
+        "settled_down_files": len(files),
+        "settled_down": settled_down,
+        "open": len(open_ids),
+        "open_hunted_30s": sum(1 for r in ok if r["id"] in set(open_ids)
+                               and _hunt_seconds(r.get("hunt") or {}) >= 29.5),
         "errors": errors,
-        "seconds": round(sum(r.get("elapsed", 0) for r in rows), 1),
-        "hunt_seconds": round(sum(h.get("elapsed", 0) for h in hunts), 1),
+        "seconds": round(sum(el), 1),
+        "per_knot": {"min": min(el, default=0), "median": statistics.median(el) if el else 0,
+                     "max": max(el, default=0)},
+        "hunt_seconds": round(sum(_hunt_seconds(h) for h in hunts), 1),
+        "hunted": len(hunted),
         "diagrams": sum(h.get("evaluated", 0) for h in hunts),
-        "best_deficit": dict(sorted(Counter(h.get("best_deficit") for h in hunts).items(),
+        "best_deficit": dict(sorted(Counter(h.get("best_deficit") for h in hunted).items(),
                                     key=lambda kv: (kv[0] is None, kv[0]))),
     }
 
@@ -134,6 +163,7 @@ def main(argv: list[str] | None = None) -> int:
     sub = ap.add_subparsers(dest="cmd", required=True)
     t = sub.add_parser("tally")
     t.add_argument("rows", nargs="+")
+    t.add_argument("--proofs", help="folder of rank proof files (settled down as well)")
     tr = sub.add_parser("trim")
     tr.add_argument("src")
     tr.add_argument("dst")
@@ -150,12 +180,16 @@ def main(argv: list[str] | None = None) -> int:
         print(settled(a.folder))
         return 0
     if a.cmd == "tally":
-        s = tally(a.rows)
+        s = tally(a.rows, a.proofs)
         print(f"rows {s['rows']}: settled up {len(s['settled_up'])} {s['settled_up']}, "
-              f"settled down {len(s['settled_down'])} {s['settled_down']}, "
-              f"open {s['open']}, errors {len(s['errors'])}")
-        print(f"time {s['seconds']} s ({s['hunt_seconds']} s hunting), "
-              f"{s['diagrams']} diagrams scored")
+              f"settled down {len(s['settled_down'])} (by the batch "
+              f"{len(s['settled_down_batch'])}, proof files {s['settled_down_files']}), "
+              f"open {s['open']} ({s['open_hunted_30s']} of them hunted >= 30 s), "
+              f"errors {len(s['errors'])}")
+        pk = s["per_knot"]
+        print(f"time {s['seconds']} s ({s['hunt_seconds']} s hunting, {s['hunted']} knots "
+              f"hunted), per knot min {pk['min']:.1f} / median {pk['median']:.1f} / max "
+              f"{pk['max']:.1f} s, {s['diagrams']} diagrams scored")
         print(f"fewest arcs left by 3 seeds (knots per value): {s['best_deficit']}")
         return 0
     if a.cmd == "trim":
