@@ -658,9 +658,9 @@ def describe_claim(meta: dict) -> str:
     if "isotopy" in tab:
         iso = tab["isotopy"]
         n = len(iso.get("steps", [])) + len(iso.get("target_steps", []))
-        return (f"{label}: the end plat's closure is the table's diagram of {tab['entry']} "
-                f"after {n} Reidemeister moves and flypes, replayed "
-                f"({tab.get('source', TABLE_SOURCE)})")
+        return (f"{label}: the end plat's closure, after {n} diagram moves (Reidemeister "
+                f"moves, flypes, reroutes; replayed), is the table's diagram of "
+                f"{tab['entry']} up to renaming ({tab.get('source', TABLE_SOURCE)})")
     return (f"{label}: the end plat is the table's diagram of {tab['entry']} "
             f"({tab.get('source', TABLE_SOURCE)})")
 

@@ -151,7 +151,8 @@ def test_naming_by_diagram_moves_and_its_tampering(named_5_2, tmp_path, capsys):
     assert iso is not None and iso["format"] == "plait-pd-isotopy/1"
     capsys.readouterr()
     assert main(["verify", str(cert)]) == 0
-    assert "Reidemeister moves and flypes, replayed" in capsys.readouterr().out
+    assert "diagram moves (Reidemeister moves, flypes, reroutes; replayed)" in \
+        capsys.readouterr().out
     p = tmp_path / "c.json"
     bad = json.loads(json.dumps(obj))
     bad["meta"]["table"]["isotopy"]["target"] = [[a, d, c, b] for a, b, c, d in

@@ -10,7 +10,8 @@ from plait.errors import InputError
 
 NAME = "name"
 HELP = ("name a knot or link from the KnotInfo tables (knots up to 13 crossings, links up to "
-        "11): candidates whose invariants match, certified by a move path to the table's plat")
+        "11): candidates whose invariants match, certified by diagram moves to the table's "
+        "PD code or a move path to its plat")
 ORDER = 37
 
 
