@@ -35,11 +35,10 @@ def switch_crossings(pd: PDCode) -> list[tuple[int, int, int, int]]:
 
 def _arc(pd: PDCode, u0: int):
     # the over-arc leaving crossing u0 along slot 2: its edges, crossings passed over, end
+    from plait.diagrams.pdmoves import _where
+
     cs = pd.crossings
-    where: dict[int, list[tuple[int, int]]] = {}
-    for j, c in enumerate(cs):
-        for s, x in enumerate(c):
-            where.setdefault(x, []).append((j, s))
+    where = _where(cs)  # label -> its two occurrences (crossing, slot)
     edges, over = [], []
     occ = (u0, 2)
     while True:
