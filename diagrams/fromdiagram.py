@@ -2,12 +2,16 @@
 
 from __future__ import annotations
 
+import itertools
+import random
+from collections.abc import Iterator
 from dataclasses import dataclass
+from math import comb
 
 from plait.diagrams.heights import DIRECTIONS, Degenerate, drawing, lift, sweep_plat
 from plait.diagrams.pd import PDCode, pd_components
 from plait.diagrams.pdjones import pd_jones, pd_jones_all_orientations, plat_jones
-from plait.diagrams.wirtinger import Wirtinger, wirtinger
+from plait.diagrams.wirtinger import Wirtinger, coloring_steps, diagram_arcs, wirtinger
 from plait.errors import GuardViolation, InputError
 from plait.word import PlatWord
 
@@ -30,6 +34,11 @@ class DiagramPlat:
         The projection direction that gave the shortest word.
     directions_tried : int
         Directions tried (degenerate ones included).
+    drawn_from : str
+        Which drawing of the diagram gave the word: ``"the diagram"``, or a diagram with
+        the same crossings met on the way (see :func:`diagram_to_plat`).
+    sweeps : int
+        Plats read off in all (one per seed set, drawing and direction).
     """
 
     plat: PlatWord
@@ -37,6 +46,8 @@ class DiagramPlat:
     wirtinger: Wirtinger | None
     direction: tuple[int, int] | None
     directions_tried: int
+    drawn_from: str = "the diagram"
+    sweeps: int = 0
 
     def to_dict(self) -> dict:
         return {
@@ -45,6 +56,8 @@ class DiagramPlat:
             "wirtinger": None if self.wirtinger is None else self.wirtinger.to_dict(),
             "direction": None if self.direction is None else list(self.direction),
             "directions_tried": self.directions_tried,
+            "drawn_from": self.drawn_from,
+            "sweeps": self.sweeps,
         }
 
 
@@ -133,11 +146,111 @@ def _wirtinger_route(pd: PDCode, wirt: Wirtinger, directions: int) -> DiagramPla
             best, best_dir = p, d
     if best is None:  # pragma: no cover - every candidate direction degenerate
         raise Degenerate("no generic direction among the candidates")
-    return DiagramPlat(best, "wirtinger", wirt, best_dir, tried)
+    return DiagramPlat(best, "wirtinger", wirt, best_dir, tried, sweeps=tried)
+
+
+# Seed sets of one size are listed in full up to this many candidates; past it, only
+# the solver's set and its single swaps are tried (the cost of a check is linear).
+_ALL_SEED_SETS = 20_000
+# Seed sets tried per drawing other than the given one.
+_PER_DRAWING = 6
+
+
+def _seed_sets(arcs, size: int, first: tuple[int, ...] | None, rng: random.Random,
+               ) -> list[tuple[int, ...]]:
+    # seed sets of the given size that color every arc: ``first`` (when given) leads,
+    # the others follow in a shuffled order fixed by ``rng``
+    n = len(arcs)
+    if comb(n, size) <= _ALL_SEED_SETS:
+        pool = list(itertools.combinations(range(n), size))
+    elif first is not None:
+        pool = sorted({tuple(sorted(set(first) - {a} | {b}))
+                       for a in first for b in range(n) if b not in first})
+    else:
+        return []
+    rng.shuffle(pool)
+    out = [] if first is None else [tuple(sorted(first))]
+    out += [s for s in pool if s not in out and coloring_steps(arcs, s) is not None]
+    return out
+
+
+def _drawings(pd: PDCode) -> Iterator[tuple[str, PDCode]]:
+    # other drawings of the same diagram size: flypes and Reidemeister III moves (each
+    # keeps the crossing number), the reversed diagram, and the same code with its
+    # crossings listed from another place (the grid drawing depends on that order);
+    # interleaved so that a small budget sees some of each kind
+    from plait.diagrams.isotopy import reverse_pd
+    from plait.diagrams.pd import validate_pd
+    from plait.diagrams.pdmoves import apply_pd_move, pd_moves
+
+    def moved():
+        for m in pd_moves(pd, kinds=("flype", "r3")):
+            try:
+                q = apply_pd_move(pd, m)
+            except InputError:  # pragma: no cover - pd_moves lists applicable moves
+                continue
+            if q.length == pd.length:
+                yield f"the diagram after {m.kind} {list(m.args)}", q
+
+    def listed():
+        yield "the reversed diagram", reverse_pd(pd)
+        cs = list(pd.crossings)
+        for i in range(1, len(cs)):
+            yield f"the diagram listed from crossing {i}", validate_pd(cs[i:] + cs[:i])
+
+    for pair in itertools.zip_longest(moved(), listed()):
+        for item in pair:
+            if item is not None:
+                yield item
+
+
+def _shortest_route(pd: PDCode, wirt: Wirtinger, sweeps: int, seed: int) -> DiagramPlat:
+    # the shortest plat over seed sets of the solver's size, drawings and directions,
+    # within ``sweeps`` read-offs; deterministic for a given seed
+    from plait.scoring.lengthbound import jones_span
+
+    rng = random.Random(seed)
+    best: tuple[PlatWord, tuple[int, int], Wirtinger, str] | None = None
+    done = 0
+    first = True
+    # no word is shorter than the Jones span (Kauffman-Murasugi-Thistlethwaite): stop there
+    floor = jones_span(pd_jones(pd) if wirt.arcs.components == 1
+                       else pd_jones_all_orientations(pd)[0])
+    for name, q in itertools.chain([("the diagram", pd)], _drawings(pd)):
+        arcs = wirt.arcs if first else diagram_arcs(q)
+        sets = _seed_sets(arcs, wirt.number, wirt.seeds if first else None, rng)
+        if not first:
+            sets = sets[:_PER_DRAWING]
+        pos = drawing(q) if sets else None
+        for seeds in sets:
+            steps = coloring_steps(arcs, seeds)
+            w = Wirtinger(len(seeds), tuple(seeds), tuple(steps), wirt.proven_minimal,
+                          wirt.method, arcs)
+            lf = lift(q, w, pos)
+            for d in DIRECTIONS:
+                done += 1
+                try:
+                    p = tidy(sweep_plat(lf, d))
+                except Degenerate:
+                    continue
+                if best is None or p.length < best[0].length:
+                    best = (p, d, w, name)
+            if done >= sweeps or best is not None and best[0].length <= floor:
+                break
+        first = False
+        if done >= sweeps or best is not None and best[0].length <= floor:
+            break
+    if best is None:  # pragma: no cover - every candidate direction degenerate
+        raise Degenerate("no generic direction among the candidates")
+    p, d, w, name = best
+    # the reported coloring is the solver's on the given diagram when another drawing won
+    return DiagramPlat(p, "wirtinger", w if name == "the diagram" else wirt, d,
+                       len(DIRECTIONS), name, done)
 
 
 def diagram_to_plat(pd: PDCode, *, method: str = "auto", time_limit: float = 10.0,
-                    seed: int = 0, directions: int = 8, guard: bool = True) -> DiagramPlat:
+                    seed: int = 0, directions: int = 8, guard: bool = True,
+                    sweeps: int = 0) -> DiagramPlat:
     """Plat of a PD diagram with as many bridges as the diagram's Wirtinger number.
 
     A coloring sequence from the fewest seeds found (CP-SAT,
@@ -146,6 +259,15 @@ def diagram_to_plat(pd: PDCode, *, method: str = "auto", time_limit: float = 10.
     lifted link is projected onto vertical planes along several generic horizontal
     directions and read as plats by sweeping the height downward
     (:func:`plait.diagrams.heights.sweep_plat`). The shortest word is kept.
+
+    With ``sweeps > 0`` the word is also looked for among other colorings and drawings,
+    since the word's length depends much on both: other seed sets of the same size (all
+    of them when there are few, else single swaps of the solver's set), then diagrams
+    with the same crossings reached by one flype or Reidemeister III move, the reversed
+    diagram and the code listed from other crossings (their grid drawings differ), a
+    few seed sets each, every one read along all of
+    :data:`plait.diagrams.heights.DIRECTIONS`, until ``sweeps`` words were read. The
+    choice is deterministic for a given ``seed``. A word is about a millisecond.
 
     Parameters
     ----------
@@ -159,9 +281,12 @@ def diagram_to_plat(pd: PDCode, *, method: str = "auto", time_limit: float = 10.
     seed : int
         Random seed of the solver.
     directions : int
-        Number of non-degenerate projection directions to try.
+        Number of non-degenerate projection directions to try (``sweeps == 0``).
     guard : bool
         Check the Jones polynomial against the diagram's (see :func:`check_plat`).
+    sweeps : int
+        Words to read in the search for a short one; 0 reads the solver's coloring on
+        the given drawing only.
 
     Raises
     ------
@@ -179,18 +304,36 @@ def diagram_to_plat(pd: PDCode, *, method: str = "auto", time_limit: float = 10.
         raise InputError(f"pd: unknown conversion method {method!r} (auto, wirtinger, vogel)")
     if pd.length == 0:
         return DiagramPlat(PlatWord(2, ()), "wirtinger", None, None, 0)
+    key = (pd, method, time_limit, seed, directions, sweeps)
+    if key in _RECENT:
+        out = _RECENT[key]
+    else:
+        out = _RECENT[key] = _convert(pd, method, time_limit, seed, directions, sweeps)
+        while len(_RECENT) > 8:
+            del _RECENT[next(iter(_RECENT))]
+    if guard:
+        check_plat(pd, out.plat)
+    return out
+
+
+# The last conversions made, by their arguments: ``plait bridge`` reports the conversion
+# that its search made a moment before (the conversion is deterministic given them).
+_RECENT: dict[tuple, DiagramPlat] = {}
+
+
+def _convert(pd: PDCode, method: str, time_limit: float, seed: int, directions: int,
+             sweeps: int) -> DiagramPlat:
     if method == "vogel":
         out = _vogel_route(pd)
     else:
         wirt = wirtinger(pd, method="cpsat", time_limit=time_limit, seed=seed)
         try:
-            out = _wirtinger_route(pd, wirt, directions)
+            out = (_shortest_route(pd, wirt, sweeps, seed) if sweeps > 0
+                   else _wirtinger_route(pd, wirt, directions))
         except Degenerate:
             if method == "wirtinger":
                 raise InputError("pd: no generic projection direction found") from None
             out = _vogel_route(pd)
-    if guard:
-        check_plat(pd, out.plat)
     return out
 
 
@@ -201,10 +344,16 @@ def _vogel_route(pd: PDCode) -> DiagramPlat:
     return DiagramPlat(tidy(braid.to_plat()), "vogel", None, None, 0)
 
 
+# Words read by default when a PD code is converted for a search (about a second).
+SWEEPS = 800
+
+
 def pd_to_plat(pd: PDCode, *, method: str = "auto", time_limit: float = 10.0,
-               seed: int = 0) -> PlatWord:
+               seed: int = 0, sweeps: int = SWEEPS) -> PlatWord:
     """Plat word of a PD diagram with the diagram's Wirtinger number of bridges.
 
-    See :func:`diagram_to_plat`, which also returns the seeds and the route taken.
+    See :func:`diagram_to_plat` (here with ``sweeps`` words read in the search for a
+    short one), which also returns the seeds and the route taken.
     """
-    return diagram_to_plat(pd, method=method, time_limit=time_limit, seed=seed).plat
+    return diagram_to_plat(pd, method=method, time_limit=time_limit, seed=seed,
+                           sweeps=sweeps).plat

@@ -5,7 +5,7 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from itertools import chain
 
-from plait.diagrams.fromdiagram import diagram_to_plat
+from plait.diagrams.fromdiagram import SWEEPS, diagram_to_plat
 from plait.diagrams.pd import PDCode, plat_to_pd, validate_pd
 from plait.diagrams.wirtinger import Wirtinger
 from plait.errors import InputError
@@ -84,7 +84,7 @@ def _pd_list(plat: PlatWord) -> list | None:
 
 
 def _diagram_bound(pd: PDCode, time_limit: float, what: str):
-    d = diagram_to_plat(pd, time_limit=time_limit)
+    d = diagram_to_plat(pd, time_limit=time_limit, sweeps=SWEEPS)
     w = d.wirtinger
     if w is None:
         return d.plat, None, f"{what} has no crossings: the unknot, 1 bridge"
