@@ -394,7 +394,8 @@ def table_plat(entry: TableEntry, mirror: bool = False, time_limit: float = 5.0)
         from plait.diagrams.fromdiagram import pd_to_plat
         from plait.diagrams.pd import validate_pd
 
-        p = pd_to_plat(validate_pd(entry.pd), time_limit=time_limit)
+        # sweeps=0: the plain construction, as measured in bench/names.py
+        p = pd_to_plat(validate_pd(entry.pd), time_limit=time_limit, sweeps=0)
     return p.mirror() if mirror else p
 
 
