@@ -157,9 +157,10 @@ _PER_DRAWING = 6
 
 
 def _seed_sets(arcs, size: int, first: tuple[int, ...] | None, rng: random.Random,
-               ) -> list[tuple[int, ...]]:
+               ) -> Iterator[tuple[int, ...]]:
     # seed sets of the given size that color every arc: ``first`` (when given) leads,
-    # the others follow in a shuffled order fixed by ``rng``
+    # the others follow in a shuffled order fixed by ``rng``; checked lazily, since a
+    # large diagram's words run out of budget long before its seed sets do
     n = len(arcs)
     if comb(n, size) <= _ALL_SEED_SETS:
         pool = list(itertools.combinations(range(n), size))
@@ -167,11 +168,14 @@ def _seed_sets(arcs, size: int, first: tuple[int, ...] | None, rng: random.Rando
         pool = sorted({tuple(sorted(set(first) - {a} | {b}))
                        for a in first for b in range(n) if b not in first})
     else:
-        return []
+        return
     rng.shuffle(pool)
-    out = [] if first is None else [tuple(sorted(first))]
-    out += [s for s in pool if s not in out and coloring_steps(arcs, s) is not None]
-    return out
+    lead = None if first is None else tuple(sorted(first))
+    if lead is not None:
+        yield lead
+    for s in pool:
+        if s != lead and coloring_steps(arcs, s) is not None:
+            yield s
 
 
 def _drawings(pd: PDCode) -> Iterator[tuple[str, PDCode]]:
@@ -216,13 +220,20 @@ def _shortest_route(pd: PDCode, wirt: Wirtinger, sweeps: int, seed: int) -> Diag
     # no word is shorter than the Jones span (Kauffman-Murasugi-Thistlethwaite): stop there
     floor = jones_span(pd_jones(pd) if wirt.arcs.components == 1
                        else pd_jones_all_orientations(pd)[0])
+    # the full budget up to 12 crossings; past that it falls in proportion (a word costs
+    # more), but never below one seed set's words
+    sweeps = min(sweeps, max(len(DIRECTIONS), sweeps * 12 // pd.length))
     for name, q in itertools.chain([("the diagram", pd)], _drawings(pd)):
         arcs = wirt.arcs if first else diagram_arcs(q)
         sets = _seed_sets(arcs, wirt.number, wirt.seeds if first else None, rng)
         if not first:
-            sets = sets[:_PER_DRAWING]
-        pos = drawing(q) if sets else None
-        for seeds in sets:
+            sets = itertools.islice(sets, _PER_DRAWING)
+        lead = next(sets, None)
+        if lead is None:
+            first = False
+            continue
+        pos = drawing(q)
+        for seeds in itertools.chain([lead], sets):
             steps = coloring_steps(arcs, seeds)
             w = Wirtinger(len(seeds), tuple(seeds), tuple(steps), wirt.proven_minimal,
                           wirt.method, arcs)
@@ -266,8 +277,10 @@ def diagram_to_plat(pd: PDCode, *, method: str = "auto", time_limit: float = 10.
     with the same crossings reached by one flype or Reidemeister III move, the reversed
     diagram and the code listed from other crossings (their grid drawings differ), a
     few seed sets each, every one read along all of
-    :data:`plait.diagrams.heights.DIRECTIONS`, until ``sweeps`` words were read. The
-    choice is deterministic for a given ``seed``. A word is about a millisecond.
+    :data:`plait.diagrams.heights.DIRECTIONS`, until ``sweeps`` words were read (up to
+    12 crossings; a larger diagram gets ``sweeps * 12 / crossings`` words, at least 16,
+    since its words cost more). The choice is deterministic for a given ``seed``. A word
+    of a 12-crossing diagram is about a millisecond.
 
     Parameters
     ----------

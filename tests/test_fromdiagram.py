@@ -319,3 +319,17 @@ def test_short_word_search_finds_shorter_words_on_three_bridge_knots():
     fd._RECENT.clear()  # computed afresh, not taken from the cache of recent conversions
     again = diagram_to_plat(validate_pd(rows[0].pd), sweeps=400)
     assert (again.plat, again.drawn_from) == (short[0].plat, short[0].drawn_from)
+
+
+def test_short_word_budget_falls_with_diagram_size():
+    # A larger diagram reads fewer words (sweeps * 12 / crossings, at least one seed
+    # set's 16 directions), and the word still has the torus knot's bridge number.
+    # Schubert 1954: the bridge number of the torus knot T(p, q) is min(p, q).
+    plat = ClosedBraid(4, (1, 2, 3) * 5).to_plat()  # T(4, 5)
+    pd = plat_to_pd(plat)
+    assert pd.length > 12
+    d = diagram_to_plat(pd, time_limit=2.0, sweeps=800)
+    cap = max(len(DIRECTIONS), 800 * 12 // pd.length)
+    assert 0 < d.sweeps <= cap + len(DIRECTIONS)
+    assert d.plat.bridges == 4
+    assert d.plat.length <= diagram_to_plat(pd, time_limit=2.0).plat.length
