@@ -97,6 +97,12 @@ def _table(rows: list[dict], title: str) -> None:
         _row(str(c), by_c[c])
     if tot["n"]:
         _row("all", tot)
+        # how the ratios spread past the quantiles: the share of plats within each bound
+        ratios = tot["ratio"]
+        n = len(ratios)
+        shares = ", ".join(f"<= {b:.2f}: {100 * sum(x <= b + 1e-12 for x in ratios) / n:.1f}%"
+                           for b in (1.0, 1.1, 1.2, 1.25))
+        print(f"length / crossing number {shares}; largest {max(ratios):.3f}")
 
 
 def main(argv: list[str] | None = None) -> int:
