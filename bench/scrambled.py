@@ -5,7 +5,9 @@ database-knotinfo), its braid notation becomes a plat (the "clean" plat), which
 :func:`plait.moves.scramble` hides in a presentation about 5 times as long with two more
 bridges. Each strategy then gets ``--time`` seconds per knot. A result counts when its
 bridges (length) are at most the clean plat's; every certificate is replayed and every
-guard must pass. One table per run, one row per strategy.
+guard must pass. Lengths are also compared with KnotInfo's crossing number, which no
+plat of the knot goes below. One table per run, one row per strategy (``--resume`` with
+every row already in ``--out`` prints the table of that file again).
 
 Usage::
 
@@ -62,9 +64,11 @@ def _one(job: tuple) -> dict:
     return row
 
 
-def _table(rows: list[dict], strategies: list[str]) -> str:
+def _table(rows: list[dict], strategies: list[str], crossings: dict[str, int]) -> str:
+    # crossings: KnotInfo's crossing number of each knot (the length no plat goes below)
     head = ("strategy", "knots", "bridges<=clean", "length<=clean", "bridges=KnotInfo",
-            "median length ratio", "median time to best (s)", "median wall (s)",
+            "median length ratio", "median length/crossing number",
+            "length=crossing number", "median time to best (s)", "median wall (s)",
             "certificates ok", "guards ok")
     lines = ["| " + " | ".join(head) + " |", "|" + "---|" * len(head)]
     for s in strategies:
@@ -79,12 +83,17 @@ def _table(rows: list[dict], strategies: list[str]) -> str:
                   for r in done)
         ratio = statistics.median(r["result"][1] / max(1, r["clean"][1]) for r in done) \
             if done else float("nan")
+        per_cr = [r["result"][1] / crossings[r["knot"]] for r in done]
+        med_cr = statistics.median(per_cr) if done else float("nan")
+        at_cr = sum(r["result"][1] == crossings[r["knot"]] for r in done)
         tb = statistics.median(r["to_best"] for r in done) if done else float("nan")
         wall = statistics.median(r["wall"] for r in rs)
         cok = sum(bool(r.get("certificate")) for r in rs)
         gok = sum(bool(r.get("guard")) for r in rs)
         lines.append(f"| {s} | {n} | {bok}/{n} ({100 * bok / n:.1f}%) | "
                      f"{lok}/{n} ({100 * lok / n:.1f}%) | {bki}/{n} | {ratio:.3f} | "
+                     f"{med_cr:.3f} | "
+                     f"{at_cr}/{n} ({100 * at_cr / n:.1f}%) | "
                      f"{tb:.2f} | {wall:.2f} | {cok}/{n} | {gok}/{n} |")
     return "\n".join(lines)
 
@@ -143,7 +152,7 @@ def main(argv: list[str] | None = None) -> int:
           f"{args.time:g} s per knot, seed {args.seed}, {args.jobs} job(s), "
           f"{time.monotonic() - t0:.0f} s in all, {time.strftime('%Y-%m-%d')}"
           + (f" ({len(done)} rows kept from {args.out})" if done else ""))
-    print(_table(results, strategies))
+    print(_table(results, strategies, {k.name: k.crossings for k in all_rows}))
     return 0
 
 

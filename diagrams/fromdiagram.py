@@ -6,6 +6,7 @@ import itertools
 import random
 from collections.abc import Iterator
 from dataclasses import dataclass
+from functools import lru_cache
 from math import comb
 
 from plait.diagrams.heights import DIRECTIONS, Degenerate, drawing, lift, sweep_plat
@@ -101,6 +102,18 @@ def tidy(plat: PlatWord) -> PlatWord:
     return plat.with_word(w)
 
 
+# The Jones polynomial of the last diagrams converted: the short-word search's stopping
+# bound and the guard both need it (PDCode is a frozen dataclass, so it keys a cache).
+@lru_cache(maxsize=16)
+def _diagram_jones(pd: PDCode) -> dict:
+    return pd_jones(pd)
+
+
+@lru_cache(maxsize=16)
+def _diagram_jones_options(pd: PDCode) -> tuple:
+    return tuple(pd_jones_all_orientations(pd))
+
+
 def check_plat(pd: PDCode, plat: PlatWord) -> None:
     """Guard: the plat's closure has the diagram's number of components and Jones
     polynomial (for a link, the diagram's Jones under some reorientation of components).
@@ -119,11 +132,11 @@ def check_plat(pd: PDCode, plat: PlatWord) -> None:
         return
     mine = plat_jones(plat)
     if ncomp == 1:
-        theirs = pd_jones(pd)
+        theirs = _diagram_jones(pd)
         if mine != theirs:
             raise GuardViolation("jones", theirs, mine, "diagram -> plat")
         return
-    options = pd_jones_all_orientations(pd)
+    options = _diagram_jones_options(pd)
     if mine not in options:
         raise GuardViolation("jones", options[0], mine, "diagram -> plat (any orientation)")
 
@@ -218,8 +231,8 @@ def _shortest_route(pd: PDCode, wirt: Wirtinger, sweeps: int, seed: int) -> Diag
     done = 0
     first = True
     # no word is shorter than the Jones span (Kauffman-Murasugi-Thistlethwaite): stop there
-    floor = jones_span(pd_jones(pd) if wirt.arcs.components == 1
-                       else pd_jones_all_orientations(pd)[0])
+    floor = jones_span(_diagram_jones(pd) if wirt.arcs.components == 1
+                       else _diagram_jones_options(pd)[0])
     # the full budget up to 12 crossings; past that it falls in proportion (a word costs
     # more), but never below one seed set's words
     sweeps = min(sweeps, max(len(DIRECTIONS), sweeps * 12 // pd.length))

@@ -181,7 +181,8 @@ def _build(pd, wirt, direction: tuple[int, int], lf=None) -> PlatWord:
 
 
 def construct(plat: PlatWord, *, time_limit: float = 1.0, seed: int = 0,
-              directions: int = 8, redraw: int = 0) -> tuple[int, RebridgeData | None]:
+              directions: int = 8, redraw: int = 0,
+              seed_sets: int = 1) -> tuple[int, RebridgeData | None]:
     """The Wirtinger number of the plat's diagram and, when it is below the plat's
     bridge count, the diagram step to a plat with that many bridges.
 
@@ -194,7 +195,11 @@ def construct(plat: PlatWord, *, time_limit: float = 1.0, seed: int = 0,
     diagram is also simplified by Reidemeister moves (at most that many steps of
     :func:`plait.diagrams.isotopy.simplify_pd`, a fixed seed: deterministic); when the
     simpler diagram colors from no more seeds it is the one used, and its moves are
-    recorded in the step.
+    recorded in the step. With ``seed_sets > 1`` the word is also read off up to that
+    many seed sets of the same size that color the diagram (the solver's first, then the
+    others in an order fixed by ``seed``, as in
+    :func:`plait.diagrams.fromdiagram.diagram_to_plat`): the word's length depends much
+    on the coloring, and the step records whichever coloring gave the shortest word.
 
     Returns
     -------
@@ -213,7 +218,7 @@ def construct(plat: PlatWord, *, time_limit: float = 1.0, seed: int = 0,
     """
     from plait.diagrams.heights import DIRECTIONS, Degenerate, drawing, lift
     from plait.diagrams.pd import plat_to_pd
-    from plait.diagrams.wirtinger import wirtinger
+    from plait.diagrams.wirtinger import Wirtinger, wirtinger
 
     if not plat.word:
         return plat.bridges, None
@@ -233,24 +238,48 @@ def construct(plat: PlatWord, *, time_limit: float = 1.0, seed: int = 0,
                 pd, wirt, moves = small, w2, tuple(path)
     if wirt.number >= plat.bridges:
         return wirt.number, None
-    lf = lift(pd, wirt, drawing(pd))
-    best: PlatWord | None = None
-    best_dir = None
-    tried = 0
-    for d in DIRECTIONS:
-        if tried >= directions:
-            break
-        try:
-            p = _build(pd, wirt, d, lf)
-        except Degenerate:
-            continue
-        tried += 1
-        if best is None or p.length < best.length:
-            best, best_dir = p, d
+    pos = drawing(pd)
+    # best = (word, direction, coloring); the first in reading order wins a tie
+    best: tuple[PlatWord, tuple[int, int], Wirtinger] | None = None
+    for w in _colorings(wirt, seed_sets, seed):
+        lf = lift(pd, w, pos)
+        tried = 0
+        for d in DIRECTIONS:
+            if tried >= directions:
+                break
+            try:
+                p = _build(pd, w, d, lf)
+            except Degenerate:
+                continue
+            tried += 1
+            if best is None or p.length < best[0].length:
+                best = (p, d, w)
     if best is None:
         return plat.bridges, None
-    steps = tuple((s.crossing, s.arc) for s in wirt.steps)
-    return wirt.number, RebridgeData(tuple(wirt.seeds), steps, best_dir, best, moves)
+    p, d, w = best
+    steps = tuple((s.crossing, s.arc) for s in w.steps)
+    return w.number, RebridgeData(tuple(w.seeds), steps, d, p, moves)
+
+
+def _colorings(wirt, count: int, seed: int):
+    # the solver's coloring, then up to count - 1 other seed sets of its size that color
+    # every arc (plait.diagrams.fromdiagram._seed_sets: all sets when there are few, else
+    # single swaps; the order fixed by ``seed``)
+    import itertools
+    import random
+
+    from plait.diagrams.fromdiagram import _seed_sets
+    from plait.diagrams.wirtinger import Wirtinger, coloring_steps
+
+    yield wirt
+    if count <= 1:
+        return
+    lead = tuple(sorted(wirt.seeds))
+    sets = _seed_sets(wirt.arcs, wirt.number, lead, random.Random(seed))
+    for seeds in itertools.islice((s for s in sets if s != lead), count - 1):
+        steps = coloring_steps(wirt.arcs, seeds)
+        yield Wirtinger(len(seeds), tuple(seeds), tuple(steps), wirt.proven_minimal,
+                        wirt.method, wirt.arcs)
 
 
 def check_rebridge(word, strands: int, args) -> PlatWord:

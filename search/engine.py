@@ -23,6 +23,10 @@ OMEGA_STEP_COST = 25
 #: Steps of Reidemeister simplification (plait.diagrams.isotopy.simplify_pd) tried on a
 #: plat's diagram before its Wirtinger coloring (the diagram step's redraw).
 OMEGA_REDRAW = 40
+#: Seed sets of the Wirtinger number's size whose words a diagram step compares
+#: (plait.moves.rebridge.construct): the solver's coloring and up to this many minus one
+#: others; the step keeps the shortest word.
+OMEGA_SEED_SETS = 8
 
 __all__ = [
     "OMEGA_TIME",
@@ -224,7 +228,8 @@ class SearchContext:
         self.omega_cache: OrderedDict[int, tuple[int, object]] = OrderedDict()
         self.omega_cap = 4096
         self.omega_time = OMEGA_TIME  # deterministic seconds per CP-SAT call
-        self.omega_directions = 1     # projection directions tried per construction
+        self.omega_directions = 2     # projection directions tried per seed set
+        self.omega_seed_sets = OMEGA_SEED_SETS  # colorings compared per construction
         self.omega_calls = 0          # solver calls made (cache misses)
         self.diagram_steps = 0        # diagram steps taken
         # called with the plat before each Wirtinger computation (the run logs it)
@@ -278,7 +283,7 @@ class SearchContext:
             if self.on_diagram is not None:
                 self.on_diagram(plat)
             hit = construct(plat, time_limit=self.omega_time, directions=self.omega_directions,
-                            redraw=OMEGA_REDRAW)
+                            redraw=OMEGA_REDRAW, seed_sets=self.omega_seed_sets)
             self.omega_cache[h] = hit
             while len(self.omega_cache) > self.omega_cap:
                 self.omega_cache.popitem(last=False)

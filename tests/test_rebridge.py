@@ -126,6 +126,35 @@ def test_the_diagram_step_never_changes_the_knot():
     assert taken >= 100  # the braid index exceeds the bridge index for most of them
 
 
+def test_comparing_colorings_keeps_the_knot_and_never_lengthens_the_step():
+    # Every KnotInfo knot up to 9 crossings whose closed braid has more strands than its
+    # diagram's Wirtinger number: the step over 8 seed sets keeps KnotInfo's Jones
+    # polynomial (same chirality) and the solver's seed count, is never longer than the
+    # step over the solver's coloring alone, and verifies from its record alone.
+    # source: KnotInfo via database-knotinfo (braid_notation, jones_polynomial)
+    from plait.moves.rebridge import check_rebridge
+
+    taken = shorter = 0
+    for k in knots(9):
+        plat = ClosedBraid.from_word(k.braid).to_plat()
+        n1, one = construct(plat, time_limit=0.2, directions=2)
+        n8, many = construct(plat, time_limit=0.2, directions=2, seed_sets=8)
+        assert n8 == n1, k.name  # the solver is deterministic; only the coloring varies
+        if one is None:
+            assert many is None, k.name
+            continue
+        taken += 1
+        assert many.result.bridges == n8 and plat_jones(many.result) == k.jones, k.name
+        assert many.result.length <= one.result.length, k.name
+        shorter += many.result.length < one.result.length
+        rec = encode(many)
+        assert check_rebridge(plat.word, plat.strands, rec.args) == many.result, k.name
+    assert taken >= 40
+    # seen when this test was written: 55 of the 71 steps shorter, 1,743 letters in all
+    # down to 1,469; other colorings must keep giving shorter words on many of them
+    assert shorter >= taken // 2
+
+
 def _knotinfo_rows(max_crossings: int):
     # source: KnotInfo via database-knotinfo (crossing_number, jones_polynomial, alternating)
     from database_knotinfo import link_list
