@@ -274,9 +274,9 @@ def _colorings(wirt, count: int, seed: int):
     yield wirt
     if count <= 1:
         return
-    lead = tuple(sorted(wirt.seeds))
-    sets = _seed_sets(wirt.arcs, wirt.number, lead, random.Random(seed))
-    for seeds in itertools.islice((s for s in sets if s != lead), count - 1):
+    # _seed_sets yields the solver's set first (already given above as ``wirt``): skip it
+    sets = _seed_sets(wirt.arcs, wirt.number, wirt.seeds, random.Random(seed))
+    for seeds in itertools.islice(sets, 1, count):
         steps = coloring_steps(wirt.arcs, seeds)
         yield Wirtinger(len(seeds), tuple(seeds), tuple(steps), wirt.proven_minimal,
                         wirt.method, wirt.arcs)
